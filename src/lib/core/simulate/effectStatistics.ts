@@ -1,0 +1,163 @@
+import { contextKey, STREAM } from './keys';
+import { rngFor } from './rng';
+import type { WellData } from './simulateWells';
+import type { PreparedSimulation } from './types';
+import { CLAMP_SPREAD, meanOf, sdOf, type World } from './world';
+
+/**
+ * Plate-corrected reagent effects Δ (row-major R × p, R = design reagents): for every well of
+ * reagent r, its profile minus the mean of the control wells on its plate (or, without controls,
+ * the mean of all treatment wells on that plate), averaged over the reagent's wells.
+ */
+export function effectsFromWells(prep: PreparedSimulation, data: WellData): Float64Array {
+	const { p, nWells, profiles, reagent, plate } = data;
+	const R = prep.reagentCatalogue.length;
+	const P = prep.plates;
+	const useControls = prep.controlPlate.length > 0;
+	const baseline = new Float64Array(P * p);
+	const count = new Float64Array(P);
+	for (let w = 0; w < nWells; w++) {
+		if (useControls !== reagent[w] < 0) continue;
+		const q = plate[w];
+		count[q]++;
+		for (let i = 0; i < p; i++) baseline[q * p + i] += profiles[w * p + i];
+	}
+	for (let q = 0; q < P; q++) if (count[q] > 0) for (let i = 0; i < p; i++) baseline[q * p + i] /= count[q];
+	const delta = new Float64Array(R * p);
+	const n = new Float64Array(R);
+	for (let w = 0; w < nWells; w++) {
+		const k = reagent[w];
+		if (k < 0) continue;
+		const q = plate[w];
+		n[k]++;
+		for (let i = 0; i < p; i++) delta[k * p + i] += profiles[w * p + i] - baseline[q * p + i];
+	}
+	for (let k = 0; k < R; k++) if (n[k] > 0) for (let i = 0; i < p; i++) delta[k * p + i] /= n[k];
+	return delta;
+}
+
+/**
+ * Fast path: draws Δ from its exact sampling distribution instead of simulating every well.
+ * Exact when mixing is linear, every plate has controls, and the simulation is at well level
+ * (or all factors are Gaussian, so cell means are exactly Gaussian). With linear mixing the
+ * plate offset cancels in (well − plate control mean), and
+ *   Δ_r = A·(Σ_e (n_e/N_r)·z̄_{r,e} − Σ_q (n_{r,q}/N_r)·z̄_q) + (Σ_e (n_e/N_r)·ε̄_{r,e} − Σ_q (n_{r,q}/N_r)·ε̄_q)
+ * where z̄_{r,e} is the factor-space mean of r's n_e wells in context e: with K ~ Binomial(n_e,
+ * efficacy) responding wells, z̄ ~ N((K·μ_resp + (n_e−K)·m_e)/n_e, (K·v_resp + (n_e−K)·v_non)/n_e²)
+ * per factor, ε̄_{r,e} ~ N(0, σ_w²/n_e·I_p), and z̄_q, ε̄_q are the same for plate q's controls.
+ * Well-level variances: v_non = τ² + s_e²/n_cells (0 at well level), clamp targets τ² + CLAMP_SPREAD²/n_cells,
+ * scale targets τ² + (s_e·(1+δ))²/n_cells; σ_w² = σ²/max(1, n_cells).
+ */
+export function drawEffectStatistics(prep: PreparedSimulation, world: World, rep: number): Float64Array {
+	const { plan, seed } = prep;
+	const obs = plan.observation;
+	const d = prep.factorIds.length;
+	const p = obs.features;
+	const R = prep.reagentCatalogue.length;
+	const P = prep.plates;
+	const cells = prep.cellsPerWell;
+	const tau2 = obs.replicateNoise * obs.replicateNoise;
+	const sw = obs.measurementNoise / Math.sqrt(Math.max(1, cells));
+	const a = world.mixing.a;
+
+	// Plate control means: factor part (P × d) and feature noise part (P × p).
+	const ctrlZ = new Float64Array(P * d);
+	const ctrlE = new Float64Array(P * p);
+	const ctrlCount = new Float64Array(P);
+	const byPlateCtx = new Map<number, number>(); // key q * (nCtx + 1) + (c + 1) → count
+	const nCtxKeys = prep.contextCatalogue.length + 1;
+	for (let t = 0; t < prep.controlPlate.length; t++) {
+		const key = prep.controlPlate[t] * nCtxKeys + prep.controlContext[t] + 1;
+		byPlateCtx.set(key, (byPlateCtx.get(key) ?? 0) + 1);
+		ctrlCount[prep.controlPlate[t]]++;
+	}
+	for (let q = 0; q < P; q++) {
+		const C = ctrlCount[q];
+		if (C === 0) continue;
+		const rng = rngFor(seed, rep, STREAM.CONTROL_STATS, q);
+		for (let ck = 0; ck < nCtxKeys; ck++) {
+			const nc = byPlateCtx.get(q * nCtxKeys + ck);
+			if (!nc) continue;
+			const c = ck - 1;
+			const m = meanOf(world, c, d);
+			const s = sdOf(world, c, d);
+			for (let j = 0; j < d; j++) {
+				const v = tau2 + (cells > 0 ? (s[j] * s[j]) / cells : 0);
+				// Σ over the nc controls of this context, divided by C: mean nc·m/C, variance nc·v/C².
+				ctrlZ[q * d + j] += (nc * m[j] + Math.sqrt(nc * v) * rng.normal()) / C;
+			}
+		}
+		const se = sw / Math.sqrt(C);
+		for (let i = 0; i < p; i++) ctrlE[q * p + i] = se * rng.normal();
+	}
+
+	// Per reagent: accumulate factor-space mean (zAcc) and feature-space noise (eAcc), then map.
+	const delta = new Float64Array(R * p);
+	const zAcc = new Float64Array(d);
+	const eAcc = new Float64Array(p);
+	const plateWeight = new Float64Array(P);
+	const muResp = new Float64Array(d);
+	const vResp = new Float64Array(d);
+	const nByCtx = new Map<number, number>();
+	// Wells per (reagent, context) and per (reagent, plate).
+	const wellsOf: number[][] = Array.from({ length: R }, () => []);
+	for (let w = 0; w < prep.wellReagent.length; w++) wellsOf[prep.wellReagent[w]].push(w);
+	for (let k = 0; k < R; k++) {
+		const wells = wellsOf[k];
+		const N = wells.length;
+		zAcc.fill(0);
+		eAcc.fill(0);
+		plateWeight.fill(0);
+		nByCtx.clear();
+		for (const w of wells) {
+			plateWeight[prep.wellPlate[w]] += 1 / N;
+			nByCtx.set(prep.wellContext[w], (nByCtx.get(prep.wellContext[w]) ?? 0) + 1);
+		}
+		const rr = world.reagents[k];
+		for (const [c, n] of nByCtx) {
+			const rng = rngFor(seed, rep, STREAM.GROUP_STATS, prep.reagentCatalogue[k], contextKey(c < 0 ? -1 : prep.contextCatalogue[c]));
+			let K = 0;
+			if (rr.efficacy >= 1) K = n;
+			else for (let i = 0; i < n; i++) if (rng.next() < rr.efficacy) K++;
+			const m = meanOf(world, c, d);
+			const s = sdOf(world, c, d);
+			for (let j = 0; j < d; j++) {
+				muResp[j] = m[j];
+				vResp[j] = tau2 + (cells > 0 ? (s[j] * s[j]) / cells : 0);
+			}
+			for (const j of rr.targets) {
+				if (rr.kind === 'shift') muResp[j] = m[j] + rr.effect[j];
+				else if (rr.kind === 'clamp') {
+					muResp[j] = rr.effect[j];
+					vResp[j] = tau2 + (cells > 0 ? (CLAMP_SPREAD * CLAMP_SPREAD) / cells : 0);
+				} else {
+					const sc = s[j] * Math.max(0, 1 + rr.effect[j]);
+					vResp[j] = tau2 + (cells > 0 ? (sc * sc) / cells : 0);
+				}
+			}
+			const wgt = n / N;
+			for (let j = 0; j < d; j++) {
+				const vNon = tau2 + (cells > 0 ? (s[j] * s[j]) / cells : 0);
+				const mean = (K * muResp[j] + (n - K) * m[j]) / n;
+				const sd = Math.sqrt(K * vResp[j] + (n - K) * vNon) / n;
+				zAcc[j] += wgt * (mean + sd * rng.normal());
+			}
+			const se = sw / Math.sqrt(n);
+			for (let i = 0; i < p; i++) eAcc[i] += wgt * se * rng.normal();
+		}
+		for (let q = 0; q < P; q++) {
+			const wq = plateWeight[q];
+			if (wq === 0) continue;
+			for (let j = 0; j < d; j++) zAcc[j] -= wq * ctrlZ[q * d + j];
+			for (let i = 0; i < p; i++) eAcc[i] -= wq * ctrlE[q * p + i];
+		}
+		const row = k * p;
+		for (let i = 0; i < p; i++) {
+			let v = eAcc[i];
+			const ai = i * d;
+			for (let j = 0; j < d; j++) v += a[ai + j] * zAcc[j];
+			delta[row + i] = v;
+		}
+	}
+	return delta;
+}
