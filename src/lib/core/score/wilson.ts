@@ -21,5 +21,6 @@ export function wilson(successes: number, n: number, z = Z_95): Proportion {
 	const denom = 1 + z2 / n;
 	const centre = p + z2 / (2 * n);
 	const half = z * Math.sqrt((p * (1 - p)) / n + z2 / (4 * n * n));
-	return { p, lo: Math.max(0, (centre - half) / denom), hi: Math.min(1, (centre + half) / denom) };
+	// At p̂ = 0 (or 1) the lower (upper) bound is exactly 0 (1); set it so rounding cannot move it.
+	return { p, lo: successes === 0 ? 0 : Math.max(0, (centre - half) / denom), hi: successes === n ? 1 : Math.min(1, (centre + half) / denom) };
 }
