@@ -6,7 +6,8 @@
 import type { Workload } from './workload';
 
 const workloads: Record<string, () => Promise<{ workload: Workload }>> = {
-	checks: () => import('./workloads/checks')
+	checks: () => import('./workloads/checks'),
+	layout: () => import('./workloads/layout')
 };
 
 const argv = process.argv.slice(2);

@@ -14,7 +14,8 @@ export interface Command {
 
 /** Commands are loaded on demand so each stays independent. */
 const commands: Record<string, () => Promise<{ command: Command }>> = {
-	check: () => import('./commands/check')
+	check: () => import('./commands/check'),
+	layout: () => import('./commands/layout')
 };
 
 function help(): string {
