@@ -17,6 +17,19 @@ export interface SymEigen {
 }
 
 const EPS = 2 ** -52;
+
+/** √(a² + b²) without overflow or underflow; much faster than Math.hypot in V8. */
+function hypot(a: number, b: number): number {
+	const x = Math.abs(a);
+	const y = Math.abs(b);
+	const m = x > y ? x : y;
+	if (m === 0) return 0;
+	if (m > 1e150 || m < 1e-150) {
+		const r = x > y ? y / x : x / y;
+		return m * Math.sqrt(1 + r * r);
+	}
+	return Math.sqrt(a * a + b * b);
+}
 const MAX_ITER = 60;
 
 export function symEigen(a: Float64Array, n: number): SymEigen {
@@ -156,7 +169,7 @@ function diagonalise(V: Float64Array, d: Float64Array, e: Float64Array, n: numbe
 				iter++;
 				let g = d[l];
 				let p = (d[l + 1] - g) / (2 * e[l]);
-				let r = Math.hypot(p, 1);
+				let r = hypot(p, 1);
 				if (p < 0) r = -r;
 				d[l] = e[l] / (p + r);
 				d[l + 1] = e[l] * (p + r);
@@ -177,7 +190,7 @@ function diagonalise(V: Float64Array, d: Float64Array, e: Float64Array, n: numbe
 					s2 = s;
 					g = c * e[i];
 					h = c * p;
-					r = Math.hypot(p, e[i]);
+					r = hypot(p, e[i]);
 					e[i + 1] = s * r;
 					s = e[i] / r;
 					c = p / r;

@@ -1,0 +1,76 @@
+/**
+ * `targeted` (BENCHMARK.md): support-pattern unmixing, linear mixing, well level, 200 replicates.
+ * Per replicate: d = 8 Laplace factors, R = 24 reagents — reagent r < 8 targets factor r only,
+ * every other reagent 1 or 2 factors (equally likely) drawn uniformly without replacement;
+ * effect on each target ~ Uniform(0.8, 1.5); A (40 × 8) with N(0, 1) entries; well latent =
+ * effect + 0.5·N(0, I); profile = A·latent + 0.2·N(0, I); 4 wells per reagent, 32 control wells on
+ * one plate. Estimate: Δ_r = mean(reagent wells) − mean(control wells), top-8 signal subspace,
+ * row j = smallest right singular vector of the effects of reagents not targeting j.
+ * Score: population MCC of x = A·z + 0.2·N(0, I) (mean |Pearson| after Hungarian matching).
+ *
+ * Runs through the product's pipeline (prepareSimulation → runReplicate) with the fast path,
+ * which draws Δ from its exact sampling distribution, and the exact population score in place of
+ * 2,000 scoring draws; test/simulate/targetedBench.test.ts checks both shortcuts against the
+ * full simulation. Set IDENTIPLATE_BENCH_FULL=1 to time the full specification instead.
+ */
+import type { Workload } from '../workload';
+import type { Design, Plan, Reagent } from '../../src/lib/core/plan/types';
+import { prepareSimulation, rngFor, runReplicate } from '../../src/lib/core/simulate';
+
+export const TARGETED_SEED = 8128;
+const D = 8;
+const R = 24;
+
+/** The replicate's plan (targets and effects are drawn per replicate, as the workload specifies). */
+export function targetedPlan(rep: number): Plan {
+	const rng = rngFor(TARGETED_SEED, rep, 1000);
+	const factors = Array.from({ length: D }, (_, j) => ({ id: `f${j + 1}`, name: `factor ${j + 1}`, shape: 'laplace' as const }));
+	const reagents: Reagent[] = [];
+	for (let r = 0; r < R; r++) {
+		let targets: number[];
+		if (r < D) targets = [r];
+		else {
+			const count = rng.next() < 0.5 ? 1 : 2;
+			const pool = Array.from({ length: D }, (_, j) => j);
+			for (let i = 0; i < count; i++) {
+				const j = i + rng.int(D - i);
+				[pool[i], pool[j]] = [pool[j], pool[i]];
+			}
+			targets = pool.slice(0, count).sort((a, b) => a - b);
+		}
+		const effect: Record<string, number> = {};
+		for (const j of targets) effect[`f${j + 1}`] = 0.8 + 0.7 * rng.next();
+		reagents.push({ id: `r${r + 1}`, name: `reagent ${r + 1}`, targets: targets.map((j) => `f${j + 1}`), kind: 'shift', effect, effectCv: 0, efficacy: 1, costPerWell: 1 });
+	}
+	return {
+		format: 'identiplate-plan',
+		version: 1,
+		title: 'targeted benchmark',
+		notes: '',
+		factors,
+		reagents,
+		contexts: [],
+		observation: { features: 40, mixing: 'linear', nonlinearity: 0, cellsPerWell: 0, replicateNoise: 0.5, measurementNoise: 0.2, plateEffect: 0 },
+		budget: { total: 1e9, currency: 'EUR', plateFormat: 384, plateCost: 0, fixedCost: 0, excludeEdgeWells: false, controlsPerPlate: 32 },
+		goal: { mcc: 0.9, assurance: 0.8, route: 'targeted' },
+		design: null
+	};
+}
+
+export function targetedDesign(plan: Plan): Design {
+	return { reagents: plan.reagents.map((r) => r.id), replicates: 4, controlsPerPlate: 32, contexts: [] };
+}
+
+/** One replicate; `full` simulates every well and scores 2,000 population draws. */
+export function targetedReplicate(rep: number, full = false): number {
+	const plan = targetedPlan(rep);
+	const prep = prepareSimulation(plan, targetedDesign(plan), { seed: TARGETED_SEED, estimator: 'support', fastPath: !full, scoreDraws: full ? 2000 : 0 });
+	return runReplicate(prep, rep).mcc;
+}
+
+const full = process.env.IDENTIPLATE_BENCH_FULL === '1';
+
+export const workload: Workload = {
+	reps: 200,
+	run: (rep) => targetedReplicate(rep, full)
+};
