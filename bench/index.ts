@@ -6,6 +6,7 @@
 import type { Workload } from './workload';
 
 const workloads: Record<string, () => Promise<{ workload: Workload }>> = {
+	targeted: () => import('./workloads/targeted'),
 	checks: () => import('./workloads/checks'),
 	layout: () => import('./workloads/layout')
 };
