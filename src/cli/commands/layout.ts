@@ -95,7 +95,7 @@ export function toText(plan: Plan, layout: Layout, csvFile: string, svgFiles: st
 		`replicate spread over ${d.replicateSpread.groups} reagent×context groups: ${pct(d.replicateSpread.distinctPlates)} as even over plates as possible, ${pct(d.replicateSpread.distinctRows)} on distinct rows, ${pct(d.replicateSpread.distinctColumns)} on distinct columns within each plate`
 	];
 	if (d.optimiser)
-		lines.push(`optimiser: imbalance score ${d.optimiser.initialScore.toFixed(3)} → ${d.optimiser.finalScore.toFixed(3)} (${d.optimiser.iterations} proposals, ${d.optimiser.accepted} swaps; about 6 = random, 0 = perfectly balanced)`);
+		lines.push(`optimiser: imbalance score ${d.optimiser.initialScore.toFixed(3)} → ${d.optimiser.finalScore.toFixed(3)} (${d.optimiser.iterations} proposals, ${d.optimiser.accepted} swaps; 0 = as balanced as whole wells allow, random placements score up to about 6)`);
 	if (d.warnings.length) lines.push('', 'warnings:', ...d.warnings.map((w) => `  - ${w}`));
 	lines.push('', `caution: ${PLATE_SHEET_CAUTION}`);
 	return lines.join('\n');

@@ -4,12 +4,14 @@ import { CONTROL, type Placement } from './placement';
 /**
  * Objective (lower is better), averaged over (reagent, context) groups. For each of three
  * position variables — usable row, usable column and ring (distance to the edge) — a group adds
- *  - its chi-square contribution Σ_k (n_k − E_k)² / E_k divided by (levels − 1), where n_k is
- *    the group's wells at level k and E_k = n · (share of its plates' free wells at level k);
+ *  - its chi-square contribution Σ_k (n_k − E_k)² / E_k minus the smallest value whole-well
+ *    counts allow, divided by (levels − 1), where n_k is the group's wells at level k and
+ *    E_k = n · (share of its plates' free wells at level k);
  *  - the squared standardised deviation of its mean position, (Σ v − n μ)² / (n σ²), with μ, σ²
  *    the mean and variance of the position over its plates' free wells (a gradient term).
- * Both parts are about 1 per variable under random placement, so the objective is about 6 for
- * a random layout and 0 for a perfectly balanced one. Free wells = wells not holding controls.
+ * Under random placement each part is at most about 1 per variable (less for small groups,
+ * whose counts cannot be balanced much anyway), so a random layout scores up to about 6 and 0
+ * means as balanced as whole wells allow. Free wells = wells not holding controls.
  */
 class Objective {
 	readonly levels: [number, number, number];
@@ -21,6 +23,8 @@ class Objective {
 	/** Per group × variable: D = Σ v − n μ, and the gradient weight 1 / (n σ²). */
 	readonly dev: Float64Array;
 	readonly gradW: Float64Array;
+	/** Smallest possible Σ n² w over all groups and variables (subtracted so that 0 is attainable in principle). */
+	readonly floor: number;
 
 	constructor(readonly pl: Placement) {
 		const { rows, columns, plates, occ, slotGroup, groups, groupReplicates, groupBlock, plateBlock, blocks, ring, rings } = pl;
@@ -78,6 +82,32 @@ class Objective {
 				this.dev[g * 3 + v] = -n * mean[b * 3 + v];
 			}
 		}
+		// Σ m_l² w_l is separable and convex in whole counts, so adding wells one at a time where
+		// the increase (2 m_l + 1) w_l is smallest reaches its minimum.
+		let floor = 0;
+		for (let g = 0; g < groups; g++) {
+			for (let v = 0; v < 3; v++) {
+				const k = this.levels[v];
+				const w = this.weight[v].subarray(g * k, g * k + k);
+				if (!w.some((x) => x > 0)) continue;
+				const m = new Int32Array(k);
+				for (let i = 0; i < groupReplicates[g]; i++) {
+					let best = -1;
+					let bestInc = Infinity;
+					for (let l = 0; l < k; l++) {
+						if (w[l] === 0) continue;
+						const inc = (2 * m[l] + 1) * w[l];
+						if (inc < bestInc) {
+							bestInc = inc;
+							best = l;
+						}
+					}
+					m[best]++;
+					floor += bestInc;
+				}
+			}
+		}
+		this.floor = floor;
 		for (let p = 0; p < plates; p++) {
 			for (let c = 0; c < cells; c++) {
 				const s = occ[p * cells + c];
@@ -94,27 +124,22 @@ class Objective {
 
 	/** Total objective (sum over groups; divide by groups for the reported mean). */
 	total(): number {
-		const { groups, groupReplicates } = this.pl;
+		const { groups } = this.pl;
 		let t = 0;
 		for (let g = 0; g < groups; g++) {
-			const n = groupReplicates[g];
 			for (let v = 0; v < 3; v++) {
 				const k = this.levels[v];
 				let chi = 0;
-				let any = false;
 				for (let l = 0; l < k; l++) {
-					const w = this.weight[v][g * k + l];
-					if (w === 0) continue;
-					any = true;
 					const m = this.count[v][g * k + l];
-					chi += m * m * w;
+					chi += m * m * this.weight[v][g * k + l];
 				}
-				if (any) t += chi - n / (k - 1);
+				t += chi;
 				const d = this.dev[g * 3 + v];
 				t += d * d * this.gradW[g * 3 + v];
 			}
 		}
-		return t;
+		return t - this.floor;
 	}
 
 	/** Change of the total when one well of group g moves from cell a to cell b. */

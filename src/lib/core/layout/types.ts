@@ -77,9 +77,9 @@ export interface LayoutDiagnostics {
 	/** Wells by role; `excluded` counts the edge wells left empty by edge exclusion (they are also in `empty`). */
 	counts: { treatment: number; control: number; empty: number; excluded: number };
 	/**
-	 * Placement optimiser: proposals tried, swaps accepted, objective before and after (mean
-	 * over groups; about 6 for a random placement, 0 for a perfectly balanced one). Null for a
-	 * layout whose diagnostics were computed without a placement run.
+	 * Placement optimiser: proposals tried, swaps accepted, imbalance score before and after
+	 * (mean over groups; 0 = as balanced as whole wells allow, a random placement scores up to
+	 * about 6). Null for a layout whose diagnostics were computed without a placement run.
 	 */
 	optimiser: { iterations: number; accepted: number; initialScore: number; finalScore: number } | null;
 	warnings: string[];
