@@ -15,7 +15,8 @@ export interface Command {
 /** Commands are loaded on demand so each stays independent. */
 const commands: Record<string, () => Promise<{ command: Command }>> = {
 	check: () => import('./commands/check'),
-	layout: () => import('./commands/layout')
+	layout: () => import('./commands/layout'),
+	size: () => import('./commands/size')
 };
 
 function help(): string {

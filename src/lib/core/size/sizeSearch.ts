@@ -297,7 +297,7 @@ export function* sizeSearch(plan: Plan, opts: SizeOptions = {}): SizeSearch {
 	let bestConfig: Config | null = null;
 	if (reachable) {
 		for (const config of configs) {
-			const found = yield* minimalReplicates(config, best ? best.cost.total : Infinity);
+			const found: DesignRecord | null = yield* minimalReplicates(config, best ? best.cost.total : Infinity);
 			if (found && (!best || found.cost.total < best.cost.total)) {
 				best = found;
 				bestConfig = config;
