@@ -13,7 +13,7 @@ import { CONTROL, type Placement } from './placement';
  * whose counts cannot be balanced much anyway), so a random layout scores up to about 6 and 0
  * means as balanced as whole wells allow. Free wells = wells not holding controls.
  */
-class Objective {
+export class PlacementObjective {
 	readonly levels: [number, number, number];
 	/** Value of each cell on each variable: row, column, ring. */
 	readonly value: [Int32Array, Int32Array, Int32Array];
@@ -174,9 +174,9 @@ class Objective {
 	}
 }
 
-/** Objective of a placement, as the mean over groups (see `Objective`); 0 when there are no groups. */
+/** Objective of a placement, as the mean over groups (see `PlacementObjective`); 0 when there are no groups. */
 export function placementScore(pl: Placement): number {
-	return pl.groups > 0 ? new Objective(pl).total() / pl.groups : 0;
+	return pl.groups > 0 ? new PlacementObjective(pl).total() / pl.groups : 0;
 }
 
 export interface OptimiseResult {
@@ -200,7 +200,7 @@ export function optimisePlacement(pl: Placement, iterations: number, rng: Rng): 
 	const { rows, columns, plates, occ, slotGroup } = pl;
 	if (rows > 32 || columns > 64) throw new RangeError(`usable grid ${rows} × ${columns} exceeds the 32 × 64 the optimiser supports`);
 	const cells = rows * columns;
-	const obj = new Objective(pl);
+	const obj = new PlacementObjective(pl);
 	const initialTotal = obj.total();
 	const groups = Math.max(1, pl.groups);
 	if (iterations === 0 || pl.groups === 0) return { iterations: 0, accepted: 0, initialScore: initialTotal / groups, finalScore: initialTotal / groups };
@@ -312,7 +312,7 @@ export function optimisePlacement(pl: Placement, iterations: number, rng: Rng): 
 		accepted++;
 	}
 	// Recompute from scratch: the incremental total drifts by rounding only, but report exact figures.
-	let finalTotal = new Objective(pl).total();
+	let finalTotal = new PlacementObjective(pl).total();
 	if (finalTotal > initialTotal) {
 		occ.set(initialOcc);
 		finalTotal = initialTotal;
