@@ -53,48 +53,72 @@ export interface ResidueColumn {
 
 /**
  * Reduced column echelon basis modulo p, grown one column at a time.
- * Layout: `basis[i]` is a Float64Array of length `dim` holding residues; its pivot row
- * `pivotRow[i]` holds 1 and every other basis vector holds 0 there (fully reduced), so a new
+ * Layout: basis vector i occupies `store[i*dim … i*dim+dim)` (residues as doubles); its pivot
+ * row `pivotRow[i]` holds 1 and every other basis vector holds 0 there (fully reduced), so a new
  * column is reduced with one pass per pivot row it touches.
  */
 export class ModularEchelon {
 	readonly dim: number;
 	readonly p: number;
-	private basis: Float64Array[] = [];
-	private pivotRow: number[] = [];
+	private store: Float64Array;
+	private count = 0;
+	private pivotRow: Int32Array;
 	private pivotOf: Int32Array;
 	private work: Float64Array;
+	/** High (15-bit) and low (16-bit) halves of the vector being added, for split products. */
+	private hi: Float64Array;
+	private lo: Float64Array;
 
 	constructor(dim: number, p: number) {
+		if (!(p > 2 && p < 2 ** 31)) throw new RangeError(`ModularEchelon: p must be a prime below 2^31, got ${p}`);
 		this.dim = dim;
 		this.p = p;
+		this.store = new Float64Array(dim * dim);
+		this.pivotRow = new Int32Array(dim);
 		this.pivotOf = new Int32Array(dim).fill(-1);
 		this.work = new Float64Array(dim);
+		this.hi = new Float64Array(dim);
+		this.lo = new Float64Array(dim);
 	}
 
 	get rank(): number {
-		return this.basis.length;
+		return this.count;
+	}
+
+	/** Empties the basis for reuse with the same dimension and prime. */
+	reset() {
+		this.count = 0;
+		this.pivotOf.fill(-1);
 	}
 
 	/** Adds a column; returns true when it raised the rank. */
 	add(col: ResidueColumn): boolean {
-		const { dim, p, basis, pivotOf } = this;
+		const { dim, p, store, pivotOf, hi, lo } = this;
 		const v = this.work;
 		v.fill(0);
 		for (let k = 0; k < col.rows.length; k++) v[col.rows[k]] = col.values[k];
-		// Eliminate the pivots the column touches. Subtracting basis vector i changes no other
-		// pivot row (fully reduced basis), so only the column's own nonzero rows need a pass.
+		// Eliminate the pivots the column touches: v -= v[r]·b_i. Subtracting basis vector i
+		// changes no other pivot row (fully reduced basis), so the column's own rows suffice.
 		for (let k = 0; k < col.rows.length; k++) {
 			const r = col.rows[k];
 			const i = pivotOf[r];
 			if (i < 0) continue;
 			const c = v[r];
 			if (c === 0) continue;
-			const b = basis[i];
+			const ch = Math.floor(c / 65536);
+			const cl = c - ch * 65536;
+			const base = i * dim;
 			for (let t = 0; t < dim; t++) {
-				const bt = b[t];
+				const bt = store[base + t];
 				if (bt === 0) continue;
-				const s = v[t] - mulMod(c, bt, p);
+				// c·bt mod p with c = ch·2^16 + cl; every intermediate < 2^48.
+				let x = ch * bt;
+				x -= Math.floor(x / p) * p;
+				x = x * 65536 + cl * bt;
+				x -= Math.floor(x / p) * p;
+				if (x < 0) x += p;
+				else if (x >= p) x -= p;
+				const s = v[t] - x;
 				v[t] = s < 0 ? s + p : s;
 			}
 		}
@@ -105,23 +129,34 @@ export class ModularEchelon {
 				break;
 			}
 		if (piv < 0) return false;
-		const fresh = new Float64Array(dim);
 		const inv = invMod(v[piv], p);
-		for (let t = 0; t < dim; t++) if (v[t] !== 0) fresh[t] = mulMod(v[t], inv, p);
-		// Clear the new pivot row from every existing basis vector.
-		for (const b of basis) {
-			const c = b[piv];
+		const fresh = this.count * dim;
+		for (let t = 0; t < dim; t++) {
+			const x = v[t] === 0 ? 0 : mulMod(v[t], inv, p);
+			store[fresh + t] = x;
+			hi[t] = Math.floor(x / 65536);
+			lo[t] = x - hi[t] * 65536;
+		}
+		// Clear the new pivot row from every existing basis vector: b -= b[piv]·fresh.
+		for (let i = 0; i < this.count; i++) {
+			const base = i * dim;
+			const c = store[base + piv];
 			if (c === 0) continue;
 			for (let t = 0; t < dim; t++) {
-				const ft = fresh[t];
-				if (ft === 0) continue;
-				const s = b[t] - mulMod(c, ft, p);
-				b[t] = s < 0 ? s + p : s;
+				if (hi[t] === 0 && lo[t] === 0) continue;
+				let x = c * hi[t];
+				x -= Math.floor(x / p) * p;
+				x = x * 65536 + c * lo[t];
+				x -= Math.floor(x / p) * p;
+				if (x < 0) x += p;
+				else if (x >= p) x -= p;
+				const s = store[base + t] - x;
+				store[base + t] = s < 0 ? s + p : s;
 			}
 		}
-		pivotOf[piv] = basis.length;
-		basis.push(fresh);
-		this.pivotRow.push(piv);
+		pivotOf[piv] = this.count;
+		this.pivotRow[this.count] = piv;
+		this.count++;
 		return true;
 	}
 }

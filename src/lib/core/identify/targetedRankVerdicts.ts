@@ -2,6 +2,7 @@ import { fraction, type Fraction } from 'mathjs';
 import { decimalParts } from './decimalParts';
 import { exactFraction, fractionRank } from './fractionRank';
 import { maximumMatching, structuralNullSupport } from './maximumMatching';
+import { peelRank } from './peelRank';
 import { modularRank, PRIME_A, PRIME_B, residue, type ResidueColumn } from './modularRank';
 
 /** One reagent's stated effects: `values[k]` on factor index `rows[k]` (a stated 0 still counts as a target). */
@@ -42,7 +43,8 @@ export const FRACTION_LIMIT = 400;
  * zero). Factor j is recovered individually iff rank(M_j) = d − 1, i.e. the left null space of
  * M_j is spanned by e_j; otherwise its block is the support of that null space — the rows whose
  * deletion does not lower the rank. Verdicts use the structural (generic) rank by maximum
- * bipartite matching; the exact rank of the stated effects is reported beside it.
+ * bipartite matching; the exact rank of the stated effects is reported beside it (singleton
+ * peeling, then exact elimination of the remaining core).
  */
 export function targetedRankVerdicts(d: number, columns: EffectColumn[], options: TargetedRankOptions = {}): TargetedRankResult {
 	if (!Number.isInteger(d) || d < 1) throw new RangeError(`targetedRankVerdicts: d must be an integer ≥ 1, got ${d}`);
@@ -67,6 +69,11 @@ export function targetedRankVerdicts(d: number, columns: EffectColumn[], options
 	columns.forEach((col, c) => col.rows.forEach((r) => rowCols[r].push(c)));
 
 	const exact = method === 'skip' ? null : method === 'fraction' ? fractionEngine(d, columns) : modularEngine(d, columns);
+	// Exact nonzero pattern (a stated effect of 0 is a structural target but an exact zero).
+	const exactColRows = columns.map((col) => col.rows.filter((_, k) => col.values[k] !== 0));
+	const exactRowCols: number[][] = Array.from({ length: d }, () => []);
+	exactColRows.forEach((rows, c) => rows.forEach((r) => exactRowCols[r].push(c)));
+
 	const individual: boolean[] = [];
 	const block: number[][] = [];
 	const structuralRank: number[] = [];
@@ -83,29 +90,28 @@ export function targetedRankVerdicts(d: number, columns: EffectColumn[], options
 		individual.push(matching.size === d - 1);
 		block.push(members);
 		if (!exact) continue;
-		// Matched columns first: generically they alone reach the structural rank, which bounds
-		// the exact rank from above, so elimination usually stops after them.
-		const order: number[] = [];
-		for (let c = 0; c < R; c++) if (active[c] && matching.colMate[c] >= 0) order.push(c);
-		for (let c = 0; c < R; c++) if (active[c] && matching.colMate[c] < 0) order.push(c);
-		exactRank.push(matching.size === 0 ? 0 : exact(order, matching.size));
+		// The exact rank never exceeds the structural rank, which therefore caps the work.
+		const peel = peelRank(d, exactColRows, exactRowCols, active, matching.size);
+		const core = peel.coreRows.length && peel.coreCols.length ? exact(peel.coreRows, peel.coreCols, matching.size - peel.peeled) : 0;
+		exactRank.push(Math.min(matching.size, peel.peeled + core));
 	}
 	return { individual, block, structuralRank, exactRank, exactMethod: method };
 }
 
-type ExactRank = (order: number[], cap: number) => number;
+/** Exact rank of the submatrix on `rows` × `cols`, stopping at `cap`. */
+type ExactRank = (rows: number[], cols: number[], cap: number) => number;
 
 /** Rational rank with mathjs fractions (small plans). */
 function fractionEngine(d: number, columns: EffectColumn[]): ExactRank {
-	const zero = fraction(0);
-	const dense: Fraction[][] = columns.map((col) => {
-		const v = new Array<Fraction>(d).fill(zero);
-		col.rows.forEach((r, k) => (v[r] = exactFraction(col.values[k])));
-		return v;
-	});
-	return (order, cap) => {
-		const m: Fraction[][] = Array.from({ length: d }, (_, i) => order.map((c) => dense[c][i]));
-		return fractionRank(m, cap);
+	let dense: Fraction[][] | null = null;
+	return (rows, cols, cap) => {
+		const zero = fraction(0);
+		dense ??= columns.map((col) => {
+			const v = new Array<Fraction>(d).fill(zero);
+			col.rows.forEach((r, k) => (v[r] = exactFraction(col.values[k])));
+			return v;
+		});
+		return fractionRank(rows.map((i) => cols.map((c) => dense![c][i])), cap);
 	};
 }
 
@@ -116,21 +122,44 @@ function fractionEngine(d: number, columns: EffectColumn[]): ExactRank {
  * the first falls short of the cap; the result is the larger of the two.
  */
 function modularEngine(d: number, columns: EffectColumn[]): ExactRank {
-	const scaled = columns.map((col) => {
-		const parts = col.values.map(decimalParts);
-		const top = Math.max(0, ...parts.map((q) => q.scale));
-		return parts.map((q) => q.numerator * 10n ** BigInt(top - q.scale));
-	});
-	const residues = (p: number): ResidueColumn[] => columns.map((col, c) => ({ rows: col.rows, values: scaled[c].map((n) => residue(n, p)) }));
+	// Built on first use: most plans peel completely and never need a core elimination.
+	let scaled: bigint[][] | null = null;
+	const residues = (p: number): ResidueColumn[] => {
+		scaled ??= columns.map((col) => {
+			const parts = col.values.map(decimalParts);
+			const top = Math.max(0, ...parts.map((q) => q.scale));
+			return parts.map((q) => q.numerator * 10n ** BigInt(top - q.scale));
+		});
+		return columns.map((col, c) => ({ rows: col.rows, values: scaled![c].map((n) => residue(n, p)) }));
+	};
 	const byPrime = new Map<number, ResidueColumn[]>();
 	const get = (p: number) => {
 		let r = byPrime.get(p);
 		if (!r) byPrime.set(p, (r = residues(p)));
 		return r;
 	};
-	return (order, cap) => {
-		const a = modularRank(d, get(PRIME_A), PRIME_A, order, cap);
+	return (rows, cols, cap) => {
+		const a = coreRank(get(PRIME_A), PRIME_A, rows, cols, cap);
 		if (a >= cap) return a;
-		return Math.max(a, modularRank(d, get(PRIME_B), PRIME_B, order, cap));
+		return Math.max(a, coreRank(get(PRIME_B), PRIME_B, rows, cols, cap));
 	};
+}
+
+/** Rank modulo p of the core submatrix (rows renumbered 0…rows.length−1). */
+function coreRank(columns: ResidueColumn[], p: number, rows: number[], cols: number[], cap: number): number {
+	const local = new Map(rows.map((r, i) => [r, i]));
+	const sub: ResidueColumn[] = cols.map((c) => {
+		const rr: number[] = [];
+		const vv: number[] = [];
+		const col = columns[c];
+		for (let k = 0; k < col.rows.length; k++) {
+			const i = local.get(col.rows[k]);
+			if (i !== undefined && col.values[k] !== 0) {
+				rr.push(i);
+				vv.push(col.values[k]);
+			}
+		}
+		return { rows: rr, values: vv };
+	});
+	return modularRank(rows.length, sub, p, undefined, cap);
 }

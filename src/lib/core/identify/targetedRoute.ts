@@ -92,10 +92,14 @@ function linearTargeted(ctx: EvalContext, known: Reagent[]): RouteOutcome {
 	});
 
 	// Separation: factors with identical target-set membership over all reagents.
+	const membership: number[][] = ids.map(() => []);
+	columns.forEach((col, c) => col.rows.forEach((j) => membership[j].push(c)));
 	const signature = new Map<string, string[]>();
-	ids.forEach((id) => {
-		const key = known.map((r, c) => (r.targets!.includes(id) ? c : -1)).filter((c) => c >= 0).join(',');
-		signature.set(key, [...(signature.get(key) ?? []), id]);
+	ids.forEach((id, j) => {
+		const key = membership[j].join(',');
+		const group = signature.get(key);
+		if (group) group.push(id);
+		else signature.set(key, [id]);
 	});
 	const groups = [...signature.values()].filter((g) => g.length > 1);
 	checks.push({
@@ -157,7 +161,7 @@ function linearTargeted(ctx: EvalContext, known: Reagent[]): RouteOutcome {
 	// Exact degeneracy of the stated values.
 	if (!ctx.skipExact) {
 		const degenerate = ids.filter((_, j) => res.exactRank[j] < res.structuralRank[j]);
-		const pair = proportionalPair(ctx, known);
+		const pair = degenerate.length ? proportionalPair(ctx, known) : null;
 		checks.push({
 			id: 'targeted.exact',
 			route: 'targeted',
