@@ -202,21 +202,31 @@ export function layoutDesign(plan: Plan, design: Design | null = null, options: 
 	// --- wells, replicate numbers ----------------------------------------------------------------
 	const replicateCounter = new Int32Array(nGroups);
 	const plates: LayoutPlate[] = [];
+	const labels = Array.from({ length: rows }, (_, r) => rowLabel(r));
+	const names = Array.from({ length: rows * columns }, (_, k) => wellName(Math.floor(k / columns), k % columns));
 	for (let p = 0; p < nPlates; p++) {
 		const b = blocks[plateBlock[p]];
-		const wells: WellAssignment[] = [];
+		const wells: WellAssignment[] = new Array(rows * columns);
 		for (let r = 0; r < rows; r++) {
 			for (let c = 0; c < columns; c++) {
-				const base = { plate: p + 1, row: rowLabel(r), column: c + 1, well: wellName(r, c) };
 				const inside = r >= off && r < rows - off && c >= off && c < columns - off;
 				const cell = inside ? (r - off) * ku + (c - off) : -1;
 				const o = inside ? occ[p * cells + cell] : EMPTY;
-				if (o === EMPTY) wells.push({ ...base, role: 'empty', reagent: null, context: null, replicate: null });
-				else if (o === CONTROL) wells.push({ ...base, role: 'control', reagent: null, context: controlContext[p * cells + cell], replicate: null });
-				else {
+				let role: WellAssignment['role'] = 'empty';
+				let reagent: string | null = null;
+				let context: string | null = null;
+				let replicate: number | null = null;
+				if (o === CONTROL) {
+					role = 'control';
+					context = controlContext[p * cells + cell];
+				} else if (o >= 0) {
 					const g = placement.slotGroup[o];
-					wells.push({ ...base, role: 'treatment', reagent: groupReagent[g], context: groupContext[g], replicate: ++replicateCounter[g] });
+					role = 'treatment';
+					reagent = groupReagent[g];
+					context = groupContext[g];
+					replicate = ++replicateCounter[g];
 				}
+				wells[r * columns + c] = { plate: p + 1, row: labels[r], column: c + 1, well: names[r * columns + c], role, reagent, context, replicate };
 			}
 		}
 		plates.push({ index: p + 1, context: b.context, wells });

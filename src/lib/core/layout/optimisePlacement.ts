@@ -265,19 +265,15 @@ export function optimisePlacement(pl: Placement, iterations: number, rng: Rng): 
 		if (sb >= 0) d += obj.moveDelta(slotGroup[sb], b, a);
 		return d;
 	};
-	const propose = (): [number, number, number] => {
-		const i = rng.int(freeCells.length);
-		const p = platesOfFree[i];
-		const j = start[p] + rng.int(start[p + 1] - start[p]);
-		return [freeCells[i], freeCells[j], p];
-	};
+	const nFree = freeCells.length;
 
 	// Starting temperature from the typical size of a swap's effect.
 	let sumAbs = 0;
 	let nAbs = 0;
 	for (let t = 0; t < 2000 && nAbs < 500; t++) {
-		const [A, B, p] = propose();
-		const d = swapDelta(A, B, p);
+		const i = rng.int(nFree);
+		const p = platesOfFree[i];
+		const d = swapDelta(freeCells[i], freeCells[start[p] + rng.int(start[p + 1] - start[p])], p);
 		if (d === d && d !== 0) {
 			sumAbs += Math.abs(d);
 			nAbs++;
@@ -291,7 +287,11 @@ export function optimisePlacement(pl: Placement, iterations: number, rng: Rng): 
 	let accepted = 0;
 	for (let it = 0; it < iterations; it++) {
 		if ((it & 1023) === 0) temperature = t0 * Math.pow(ratio, it / iterations);
-		const [A, B, p] = propose();
+		// Proposal: a random free well, and a random free well of the same plate.
+		const i = rng.int(nFree);
+		const p = platesOfFree[i];
+		const A = freeCells[i];
+		const B = freeCells[start[p] + rng.int(start[p + 1] - start[p])];
 		const d = swapDelta(A, B, p);
 		if (d !== d) continue;
 		if (d > 0 && rng.next() >= Math.exp(-d / temperature)) continue;
