@@ -16,7 +16,8 @@ export interface Command {
 const commands: Record<string, () => Promise<{ command: Command }>> = {
 	check: () => import('./commands/check'),
 	layout: () => import('./commands/layout'),
-	size: () => import('./commands/size')
+	size: () => import('./commands/size'),
+	simulate: () => import('./commands/simulate')
 };
 
 function help(): string {

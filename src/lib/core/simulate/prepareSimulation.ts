@@ -1,4 +1,5 @@
 import type { Design, Plan, Route } from '../plan/types';
+import { checkPlan } from '../identify/checkPlan';
 import { designCost } from '../size/costModel';
 import { ESTIMATORS, type EstimatorName, type LinearStep, type PreparedSimulation, type SimulationOptions } from './types';
 
@@ -103,8 +104,26 @@ export function prepareSimulation(plan: Plan, design: Design, opts: SimulationOp
 
 	// Blocks.
 	let blocks: number[][] | null = null;
-	if (opts.blocks) {
-		blocks = opts.blocks.map((b, bi) =>
+	let blockIds = opts.blocks;
+	if (blockIds === undefined) {
+		// The identify module's verdicts for this route and design name the blocks.
+		try {
+			const verdicts = checkPlan({ ...plan, goal: { ...plan.goal, route } }, design).routes.find((r) => r.route === route);
+			const seen = new Set<string>();
+			blockIds = [];
+			for (const f of verdicts?.factors ?? [])
+				if (f.verdict === 'block' && f.block.length > 1 && !seen.has(f.block.join('\u0000'))) {
+					seen.add(f.block.join('\u0000'));
+					blockIds.push(f.block);
+				}
+			if (blockIds.length === 0) blockIds = null;
+		} catch (err) {
+			warnings.push(`identifiability verdicts unavailable, block R² not computed: ${(err as Error).message}`);
+			blockIds = null;
+		}
+	}
+	if (blockIds) {
+		blocks = blockIds.map((b, bi) =>
 			b.map((id, t) => {
 				const j = factorIds.indexOf(id);
 				if (j < 0) throw new RangeError(`blocks[${bi}][${t}]: unknown factor "${id}"`);

@@ -31,6 +31,8 @@ export interface WellData {
 	nCells: number;
 	cells: Float64Array;
 	cellWell: Int32Array;
+	/** Plate offsets β_q (row-major plates × p), kept so scores can use plate 0's population. */
+	offsets: Float64Array;
 }
 
 export function simulateWells(prep: PreparedSimulation, world: World, rep: number): WellData {
@@ -122,5 +124,7 @@ export function simulateWells(prep: PreparedSimulation, world: World, rep: numbe
 			for (let i = 0; i < p; i++) profiles[row + i] /= cells;
 		}
 	}
-	return { p, d, nWells, profiles, reagent, context, plate, nCells, cells: cellData, cellWell };
+	const offsetData = new Float64Array(prep.plates * p);
+	offsets.forEach((b, q) => offsetData.set(b, q * p));
+	return { p, d, nWells, profiles, reagent, context, plate, nCells, cells: cellData, cellWell, offsets: offsetData };
 }

@@ -13,8 +13,9 @@ export type LinearStep = Exclude<EstimatorName, 'contrastive'>;
  *   nonlinear mixing with λ > 0 → contrastive lift followed by the route's linear step).
  * - route [plan.goal.route, 'auto' when that is 'auto']: 'auto' picks targeted when the design
  *   has reagents, contexts when it uses ≥ 2 contexts, else observational.
- * - blocks [null]: groups of factor ids that are only identifiable jointly; block R² is then
- *   reported for their members.
+ * - blocks [from the identify module]: groups of factor ids that are only identifiable
+ *   jointly; block R² is then reported for their members. Undefined = take them from
+ *   checkPlan(plan, design) for the resolved route (its `block` verdicts); null = none (faster).
  * - fastPath ['auto']: draw the plate-corrected reagent means from their exact sampling
  *   distribution where that is exact (linear mixing, support/sparse estimators, controls on
  *   every plate, well level or Gaussian factors); `false` always simulates every well and cell.
