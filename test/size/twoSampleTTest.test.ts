@@ -29,6 +29,9 @@ describe('normal CDF and t quantiles against printed tables', () => {
 	it('matches jstat studentt.inv across df and p (reference library from npm)', () => {
 		for (const df of [1, 2, 5, 30, 200]) for (const p of [0.6, 0.9, 0.975, 0.999]) expect(tQuantile(p, df)).toBeCloseTo(jStat.studentt.inv(p, df), 6);
 	});
+	it('df = 1 is the Cauchy distribution: quantile tan(π(p − ½)) in closed form', () => {
+		for (const p of [0.6, 0.9, 0.975, 0.999]) expect(tQuantile(p, 1) / Math.tan(Math.PI * (p - 0.5))).toBeCloseTo(1, 10);
+	});
 	it('rejects bad arguments with the field named', () => {
 		expect(() => tQuantile(1, 5)).toThrow(/p must be in \(0, 1\)/);
 		expect(() => noncentralTCdf(1, 0, 0)).toThrow(/df must be/);

@@ -11,7 +11,7 @@
  *   T = (Z + δ) / S,  S = √(χ²_ν / ν)  ⇒  F(t; ν, δ) = E_S[Φ(t·S − δ)].
  * Substituting u = ln S, the density of u is ∝ exp(g(u)), g(u) = ν·u − ν·(e^{2u} − 1)/2, whose peak
  * is at u = 0 with curvature −2ν. The integral is taken over the range where g > −60 with
- * composite 16-point Gauss–Legendre panels and normalised by the same quadrature of the weight,
+ * composite 16-point Gauss–Legendre panels (24, or 64 when ν < 8) and normalised by the same quadrature of the weight,
  * so the normalising constant (a gamma function) cancels.
  */
 
@@ -107,7 +107,8 @@ interface ScaleGrid {
 	w: Float64Array;
 }
 
-const PANELS = 48;
+/** Panels: the weight of small ν has long tails in u, so they get more panels. */
+const panelsFor = (nu: number) => (nu < 8 ? 64 : 24);
 const gridCache = new Map<number, ScaleGrid>();
 
 function scaleGrid(nu: number): ScaleGrid {
@@ -130,12 +131,13 @@ function scaleGrid(nu: number): ScaleGrid {
 	while (g(right) > cut) right *= 2;
 	const uL = solve(left, 0);
 	const uR = solve(0, right);
-	const n = PANELS * GL_ORDER;
+	const panels = panelsFor(nu);
+	const n = panels * GL_ORDER;
 	const s = new Float64Array(n);
 	const w = new Float64Array(n);
-	const h = (uR - uL) / PANELS;
+	const h = (uR - uL) / panels;
 	let total = 0;
-	for (let p = 0; p < PANELS; p++) {
+	for (let p = 0; p < panels; p++) {
 		const mid = uL + (p + 0.5) * h;
 		for (let k = 0; k < GL_ORDER; k++) {
 			const u = mid + (h / 2) * GL_X[k];
@@ -243,22 +245,34 @@ export function replicatesForPower(d: number, opts: { power?: number; alpha?: nu
 	if (power <= alpha) throw new RangeError(`power must exceed alpha (${alpha}), got ${power}`);
 	if (d === 0) return { n: null, exactN: null, power: null };
 	const pw = (n: number) => twoSampleTTestPower(n, d, alpha);
-	// Power increases with n: double, then bisect on the reals.
-	let lo = 1 + 1e-9;
+	// Power increases with n: whole numbers first (doubling, then bisection), then the
+	// continuous solution inside (n − 1, n] by bisection on the reals.
+	let lo = 1;
 	let hi = 2;
-	while (pw(hi) < power) {
+	let pHi = pw(hi);
+	while (pHi < power) {
 		lo = hi;
 		hi *= 2;
 		if (hi > maxN) return { n: null, exactN: null, power: null };
+		pHi = pw(hi);
 	}
-	for (let i = 0; i < 200 && hi - lo > 1e-7 * hi; i++) {
-		const mid = (lo + hi) / 2;
-		if (pw(mid) < power) lo = mid;
-		else hi = mid;
+	while (hi - lo > 1) {
+		const mid = Math.floor((lo + hi) / 2);
+		const pm = pw(mid);
+		if (pm < power) lo = mid;
+		else {
+			hi = mid;
+			pHi = pm;
+		}
 	}
-	const exactN = (lo + hi) / 2;
-	let n = Math.max(2, Math.ceil(exactN - 1e-9));
-	while (n > 2 && pw(n - 1) >= power) n--;
-	while (pw(n) < power) n++;
-	return { n, exactN, power: pw(n) };
+	const n = hi;
+	let a = Math.max(lo, 1 + 1e-9);
+	let b = hi;
+	while (b - a > 1e-6 * b) {
+		const mid = (a + b) / 2;
+		if (pw(mid) < power) a = mid;
+		else b = mid;
+	}
+	const exactN = (a + b) / 2;
+	return { n, exactN, power: pHi };
 }
