@@ -7,6 +7,7 @@ import type { Workload } from './workload';
 
 const workloads: Record<string, () => Promise<{ workload: Workload }>> = {
 	targeted: () => import('./workloads/targeted'),
+	ica: () => import('./workloads/ica'),
 	checks: () => import('./workloads/checks'),
 	layout: () => import('./workloads/layout')
 };
