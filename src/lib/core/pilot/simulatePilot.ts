@@ -4,6 +4,9 @@ import { rngFor, shuffleInPlace, type Rng } from '../simulate/rng';
 import { NEGATIVE_CONTROL, POSITIVE_CONTROL } from './types';
 import { rowLabel } from './wellName';
 
+/** SD of a clamped factor around its clamped value. */
+const CLAMP_SPREAD = 0.1;
+
 /** The invented truth behind a simulated pilot (all effects in factor SD units). */
 export interface PilotTruth {
 	/** SD τ of well-to-well noise in factor space. */
@@ -44,8 +47,8 @@ export interface SimulatePilotOptions {
 /**
  * Rows of a simulated pilot CSV (header first) drawn from the plan's generative model
  * (DESIGN.md "Generative model"): well latent z = b·δ_r + η, η ~ N(0, τ²I), b ~ Bernoulli(efficacy)
- * (clamp: targets set to the value ± 0.1; scale: targets' spread × (1 + effect)); in a cells file
- * each cell adds u_c drawn from the factor's shape. Profile x = A z + β_plate + ε with A (p × d)
+ * (clamp: targets at the value with spread 0.1; scale: the cells' spread on the targets × (1 + effect));
+ * in a cells file each cell adds u_c drawn from the factor's shape. Profile x = A z + β_plate + ε with A (p × d)
  * of independent N(0, 1) entries (an RMS loading of 1 per feature), β ~ N(0, σ²_plate I),
  * ε ~ N(0, σ²_meas I); then each feature gets its own invented unit: offset + scale·x.
  * Wells are placed at random (seeded) among the plate's usable wells, rows sorted by position.
@@ -121,13 +124,13 @@ export function* simulatePilotRows(plan: Plan, options: SimulatePilotOptions): G
 			const spec = typeof c === 'number' ? specs[c] : null;
 			const acts = spec ? rng.next() < spec.efficacy : true;
 			// Well latent: responding wells get the reagent's change, every well replicate noise.
+			// (clamp at well level: the clamped value with its spread; scale changes only the cells' spread)
 			for (let j = 0; j < d; j++) {
 				let v = truth.replicateNoise * rng.normal();
 				if (c === 'positive') v += positive[j];
 				if (spec && acts) {
 					if (spec.kind === 'shift') v += spec.delta[j];
-					else if (spec.kind === 'clamp' && spec.targets[j]) v = spec.delta[j] + 0.1 * rng.normal();
-					else if (spec.kind === 'scale' && spec.targets[j]) v *= 1 + spec.delta[j];
+					else if (spec.kind === 'clamp' && spec.targets[j]) v += spec.delta[j] + (options.cellsPerWell === 0 ? CLAMP_SPREAD * rng.normal() : 0);
 				}
 				z[j] = v;
 			}
@@ -147,8 +150,8 @@ export function* simulatePilotRows(plan: Plan, options: SimulatePilotOptions): G
 				for (let j = 0; j < d; j++) {
 					let u = drawShape(shapes[j], rng);
 					if (spec && acts && spec.targets[j]) {
-						if (spec.kind === 'clamp') u = 0;
-						else if (spec.kind === 'scale') u *= 1 + spec.delta[j];
+						if (spec.kind === 'clamp') u = CLAMP_SPREAD * rng.normal();
+						else if (spec.kind === 'scale') u *= Math.max(0, 1 + spec.delta[j]);
 					}
 					zc[j] = z[j] + u;
 				}
