@@ -16,6 +16,7 @@ export interface Command {
 const commands: Record<string, () => Promise<{ command: Command }>> = {
 	check: () => import('./commands/check'),
 	layout: () => import('./commands/layout'),
+	pilot: () => import('./commands/pilot'),
 	size: () => import('./commands/size'),
 	simulate: () => import('./commands/simulate')
 };
