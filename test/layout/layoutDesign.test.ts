@@ -40,7 +40,7 @@ function violations(plan: Plan, layout: Layout): string[] {
 				if (!okCtx) out.push(`control ${w.well} on plate ${plate.index} has context ${w.context}`);
 			}
 			if (w.role === 'treatment') {
-				const okCtx = plate.context !== null ? w.context === plate.context : (wellCtx.length ? wellCtx : [null]).includes(w.context);
+				const okCtx = plate.context !== null ? w.context === plate.context : (wellCtx.length ? (wellCtx as (string | null)[]) : [null]).includes(w.context);
 				if (!okCtx) out.push(`treatment ${w.well} on plate ${plate.index} (context ${plate.context}) has context ${w.context}`);
 				const key = `${w.reagent}|${w.context}`;
 				if (!groups.has(key)) groups.set(key, new Map());
