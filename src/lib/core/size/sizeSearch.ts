@@ -2,6 +2,7 @@ import { checkPlan } from '../identify';
 import type { Design, Plan, PlateFormat, Route } from '../plan/types';
 import { quantileSorted } from '../score/quantile';
 import { wilson, Z_95 } from '../score/wilson';
+import { prepareSimulation } from '../simulate/prepareSimulation';
 import type { SimulationOptions } from '../simulate/types';
 import { designCost, usableWellsPerPlate, type DesignCost } from './costModel';
 import { reagentTTests } from './reagentTTests';
@@ -33,8 +34,9 @@ import type { AssuranceEstimate, CurvePoint, EvalRequest, FrontierPoint, Replica
  *    interval of the assurance lies entirely above the goal (meets) or entirely below (fails),
  *    or `maxReps` replicates are done (then: meets iff the point estimate p ≥ goal).
  *    A design "meets the goal" by this rule; `feasible` = the cheapest such design costs ≤ budget.
- * 6. When the budget is short: every configuration at the most replicates the budget buys; the
- *    recommended design is then the highest-assurance design within budget.
+ * 6. When the budget is short: every configuration at the most replicates the budget buys (at
+ *    least 4 batches of replicates each); the recommended design is the one of these with the
+ *    highest assurance.
  * 7. Curve (MCC median and 10th percentile, assurance) over replicates for the chosen
  *    configuration; Pareto frontier of cost against assurance over every design evaluated.
  */
@@ -214,10 +216,10 @@ export function* sizeSearch(plan: Plan, opts: SizeOptions = {}): SizeSearch {
 	}
 
 	/** Runs the sequential Monte Carlo of every listed design until each is decided (in shared batches). */
-	function* decideAll(designs: Design[], phase: SizeProgress['phase'], message: string): Generator<SearchYield, DesignRecord[], ReplicateOutcome[][]> {
+	function* decideAll(designs: Design[], phase: SizeProgress['phase'], message: string, minReps = 0): Generator<SearchYield, DesignRecord[], ReplicateOutcome[][]> {
 		const recs = designs.map(record);
 		for (;;) {
-			const open = [...new Set(recs.filter((r) => r.decided === null))];
+			const open = [...new Set(recs.filter((r) => r.decided === null || r.mccs.length < minReps))];
 			if (open.length === 0) return recs;
 			const requests = open.map((r) => {
 				const from = r.mccs.length;
@@ -238,6 +240,7 @@ export function* sizeSearch(plan: Plan, opts: SizeOptions = {}): SizeSearch {
 				}
 				evaluations += want.length;
 				const n = r.mccs.length;
+				if (r.decided !== null) return;
 				const w = wilson(r.successes, n, Z_95);
 				if (w.lo > goal.assurance) r.decided = true;
 				else if (w.hi < goal.assurance) r.decided = false;
@@ -319,15 +322,18 @@ export function* sizeSearch(plan: Plan, opts: SizeOptions = {}): SizeSearch {
 			const r = maxAffordable(plan, config, budget);
 			if (r !== null) probes.push({ config, design: designOf(config, r) });
 		}
-		if (probes.length) yield* decideAll(probes.map((p) => p.design), 'budget', 'the most replicates the budget buys');
+		// Probes are compared with each other, so each gets at least 4 batches of replicates.
+		const probeRecs = probes.length ? yield* decideAll(probes.map((p) => p.design), 'budget', 'the most replicates the budget buys', Math.min(maxReps, 4 * batch)) : [];
 		const within = [...records.values()].filter((r) => r.cost.total <= budget && r.cost.overStock.length === 0);
 		const meeting = reachable ? within.filter((r) => r.decided === true).sort((a, b) => a.cost.total - b.cost.total) : [];
 		if (meeting.length) {
 			// A design within budget met the goal outside the monotone path (Monte Carlo noise).
 			feasible = true;
 			recommended = meeting[0];
-		} else if (within.length) {
-			recommended = within.sort((a, b) => assuranceOf(b).p - assuranceOf(a).p || a.cost.total - b.cost.total)[0];
+		} else if (probeRecs.length) {
+			// Assurance is taken to grow with replicates: per configuration the most replicates the
+			// budget buys; across configurations the highest assurance (ties: the cheaper).
+			recommended = [...probeRecs].sort((a, b) => assuranceOf(b).p - assuranceOf(a).p || a.cost.total - b.cost.total)[0];
 		}
 		if (recommended) recommendedConfig = configs.find((c) => sameConfig(c, recommended!.design)) ?? null;
 	}
@@ -360,6 +366,10 @@ export function* sizeSearch(plan: Plan, opts: SizeOptions = {}): SizeSearch {
 			top = a.p;
 		}
 	}
+
+	// The simulation's own warnings about the design judged (e.g. a route that needs cells).
+	const judged = recommended?.design ?? best?.design ?? (configs[0] ? designOf(configs[0], 2) : null);
+	if (judged) for (const w of prepareSimulation(plan, judged, simOptions).warnings) if (!warnings.includes(w)) warnings.push(`Simulation: ${w}`);
 
 	const tTest = reagentTTests(plan, recommended?.design, { power: opts.power ?? SIZE_DEFAULTS.power, alpha: opts.alpha ?? SIZE_DEFAULTS.alpha });
 	const money = (x: number) => `${formatAmount(x)} ${currency}`;
