@@ -38,8 +38,10 @@ export class VerdictRunner {
 	readonly cost: TaskRunner<EngineHandlers, 'designCost'>;
 	/** True between an edit and the start of the rerun. */
 	waiting = $state(false);
-	/** True when the last result belongs to the plan as it is now. */
-	readonly current: boolean = $derived.by(() => this.check.resultTag === this.session.inputHash && !this.waiting);
+	/** Input hash of the plan whose checks and cost have both arrived (and been stored). */
+	private settledTag: string | null = $state(null);
+	/** True when the verdicts and the cost shown belong to the plan as it is now. */
+	readonly current: boolean = $derived.by(() => this.settledTag === this.session.inputHash && !this.waiting);
 
 	private timer: ReturnType<typeof setTimeout> | undefined;
 	private readonly unsubscribe: () => void;
@@ -67,13 +69,15 @@ export class VerdictRunner {
 		if (this.session.issues.length) return; // the notebook shows the plan's problems instead
 		const plan = this.session.snapshot();
 		const tag = this.session.inputHash;
-		const [outcome] = await Promise.all([this.check.run({ plan }, tag), this.cost.run({ plan }, tag)]);
-		if (outcome.ok && tag === this.session.inputHash) {
+		const [outcome, cost] = await Promise.all([this.check.run({ plan }, tag), this.cost.run({ plan }, tag)]);
+		if (tag !== this.session.inputHash) return; // the plan changed meanwhile; a newer run follows
+		if (outcome.ok) {
 			const previous = this.session.resultFor('check');
 			const summary = summarizeCheck(outcome.result);
 			const unchanged = previous && !previous.stale && JSON.stringify(previous.result.summary) === JSON.stringify(summary);
 			if (!unchanged) this.session.setResult('check', null, { route: plan.goal.route }, summary);
 		}
+		if (outcome.ok && cost.ok) this.settledTag = tag;
 	}
 
 	destroy(): void {
