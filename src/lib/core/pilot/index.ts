@@ -5,7 +5,7 @@ export { parsePilotCsvText } from './parsePilotCsvText';
 export { analysePilot } from './analysePilot';
 export { applyPilot } from './applyPilot';
 export { zPrime, zPrimeFromMoments } from './zPrime';
-export { marchenkoPasturEdges, fMatrixUpperEdge, johnstoneCentringScale, noiseSpikeThreshold, TRACY_WIDOM_1_95 } from './noiseEdges';
+export { marchenkoPasturEdges, fMatrixUpperEdge, spectrumUpperEdge, johnstoneCentringScale, noiseSpikeThreshold, TRACY_WIDOM_1_95, TRACY_WIDOM_1_99 } from './noiseEdges';
 export { ledoitWolfShrinkage } from './ledoitWolf';
 export { groupRoots } from './groupRoots';
 export { normalisePilot } from './normalisePilot';
