@@ -59,6 +59,7 @@ export function createPilotReader(plan: Plan, options: PilotReaderOptions = {}):
 	const wellsText = `a well name A1–${lastWellName(format)} of a ${format}-well plate`;
 
 	let header: string[] | null = null;
+	let headerLine = 1;
 	let recordKeys: string[] | null = null;
 	const keyIndex: Partial<Record<KeyColumn, number>> = {};
 	let featureIndex: number[] = [];
@@ -91,6 +92,7 @@ export function createPilotReader(plan: Plan, options: PilotReaderOptions = {}):
 			}
 		}
 		header = names;
+		headerLine = at;
 		featureIndex = names.map((_, i) => i).filter((i) => !(KEY_COLUMNS as readonly string[]).includes(names[i].toLowerCase()));
 		features = featureIndex.map((i) => names[i]);
 		if (features.length === 0) throw new PilotError(at, null, 'at least one feature column after plate, well, reagent and context', 'none');
@@ -210,7 +212,7 @@ export function createPilotReader(plan: Plan, options: PilotReaderOptions = {}):
 			if (finished) throw new Error('createPilotReader: finish() called twice');
 			finished = true;
 			if (header === null) throw new PilotError(Math.max(1, line), null, 'a header row with the columns plate, well, reagent, [context], then feature columns', 'an empty file');
-			if (order.length === 0) throw new PilotError(line + 1, null, 'at least one data row after the header', 'none');
+			if (order.length === 0) throw new PilotError(headerLine + 1, null, 'at least one data row after the header', 'none');
 			const repeated = order.filter((w) => w.info.rows > 1);
 			let kind: PilotKind;
 			if (kindOption === 'auto') kind = keyIndex.cell !== undefined || repeated.length * 2 > order.length ? 'cells' : 'wells';
