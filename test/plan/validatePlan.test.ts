@@ -56,6 +56,9 @@ describe('parsePlan errors name the path and the expectation', () => {
 			/^design\.reagents\[1\]: unknown reagent "zz"/
 		);
 	});
+	it('reserved reagent ids', () => {
+		expect(firstMessage((p) => (p.reagents[0].id = 'control'))).toMatch(/^reagents\[0\]\.id: "control" is reserved/);
+	});
 	it('invalid JSON text and non-objects', () => {
 		expect(() => parsePlan('{')).toThrow(/not valid JSON/);
 		expect(() => parsePlan(42)).toThrow(PlanError);

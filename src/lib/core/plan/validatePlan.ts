@@ -20,6 +20,9 @@ import { migratePlan } from './migratePlan';
 
 type Obj = Record<string, unknown>;
 
+/** Labels of control wells in layout and pilot CSVs; no reagent may use them as its id. */
+export const RESERVED_REAGENT_IDS = ['control', 'positive', 'empty'];
+
 const isObject = (v: unknown): v is Obj => typeof v === 'object' && v !== null && !Array.isArray(v);
 
 class Collector {
@@ -167,6 +170,10 @@ export function validatePlan(input: unknown): PlanIssue[] {
 				if (values.some((v) => typeof v === 'number' && v <= -1)) c.add(join(p, 'effect'), 'expected > −1 for a scale reagent (the spread is multiplied by 1 + effect)');
 			}
 		}
+	});
+	reagents.forEach((r, i) => {
+		if (isObject(r) && typeof r.id === 'string' && RESERVED_REAGENT_IDS.includes(r.id.toLowerCase()))
+			c.add(join(join('reagents', i), 'id'), `"${r.id}" is reserved for control wells in layout and pilot files; choose another id`);
 	});
 	const reagentIds = uniqueIds(c, reagents, 'reagents', 'reagent');
 
