@@ -26,11 +26,12 @@ export function icaReplicate(rep: number): { mcc: number; converged: boolean; it
 	const z = new Float64Array(D);
 	const x = new Float64Array(N * P);
 	const a = mixing.a;
+	rng.fillNormal(x, 0, N * P, NOISE);
 	for (let s = 0; s < N; s++) {
 		for (let j = 0; j < D; j++) z[j] = drawFactor('laplace', rng);
 		const row = s * P;
 		for (let i = 0; i < P; i++) {
-			let v = NOISE * rng.normal();
+			let v = x[row + i];
 			for (let j = 0; j < D; j++) v += a[i * D + j] * z[j];
 			x[row + i] = v;
 		}

@@ -87,14 +87,14 @@ export function drawEffectStatistics(prep: PreparedSimulation, world: World, rep
 				ctrlZ[q * d + j] += (nc * m[j] + Math.sqrt(nc * v) * rng.normal()) / C;
 			}
 		}
-		const se = sw / Math.sqrt(C);
-		for (let i = 0; i < p; i++) ctrlE[q * p + i] = se * rng.normal();
+		rng.fillNormal(ctrlE, q * p, p, sw / Math.sqrt(C));
 	}
 
 	// Per reagent: accumulate factor-space mean (zAcc) and feature-space noise (eAcc), then map.
 	const delta = new Float64Array(R * p);
 	const zAcc = new Float64Array(d);
 	const eAcc = new Float64Array(p);
+	const noise = new Float64Array(p);
 	const plateWeight = new Float64Array(P);
 	const muResp = new Float64Array(d);
 	const vResp = new Float64Array(d);
@@ -142,8 +142,8 @@ export function drawEffectStatistics(prep: PreparedSimulation, world: World, rep
 				const sd = Math.sqrt(K * vResp[j] + (n - K) * vNon) / n;
 				zAcc[j] += wgt * (mean + sd * rng.normal());
 			}
-			const se = sw / Math.sqrt(n);
-			for (let i = 0; i < p; i++) eAcc[i] += wgt * se * rng.normal();
+			rng.fillNormal(noise, 0, p, (wgt * sw) / Math.sqrt(n));
+			for (let i = 0; i < p; i++) eAcc[i] += noise[i];
 		}
 		for (let q = 0; q < P; q++) {
 			const wq = plateWeight[q];

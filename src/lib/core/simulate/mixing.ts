@@ -23,7 +23,7 @@ export function drawMixing(p: number, d: number, rng: Rng, opts: { nonlinearity?
 	const lambda = opts.nonlinearity ?? 0;
 	if (!(lambda >= 0 && lambda < 1)) throw new RangeError(`nonlinearity must be in [0, 1), got ${lambda}`);
 	const a = new Float64Array(p * d);
-	for (let i = 0; i < p * d; i++) a[i] = rng.normal();
+	rng.fillNormal(a, 0, p * d);
 	if (opts.condition) resetCondition(a, p, d, opts.condition, rng);
 	let u: Float64Array | null = null;
 	let v: Float64Array | null = null;

@@ -5,6 +5,8 @@
  * workers or the order in which replicates run, and candidate designs can share common random
  * numbers by using the same path.
  */
+import { ZIG_F, ZIG_K, ZIG_R, ZIG_W } from './ziggurat';
+
 export interface Rng {
 	/** The integers this stream was derived from. */
 	readonly path: readonly number[];
@@ -14,6 +16,12 @@ export interface Rng {
 	normal(): number;
 	/** Uniform integer in [0, n). */
 	int(n: number): number;
+	/**
+	 * Fills out[offset … offset+count) with independent N(0, scale²) variates by the ziggurat
+	 * method (see ziggurat.ts) — several times faster than `normal()` for bulk draws; a separate
+	 * sequence from `normal()`.
+	 */
+	fillNormal(out: Float64Array, offset: number, count: number, scale?: number): void;
 	/** Independent child stream. */
 	split(key: number): Rng;
 }
@@ -48,33 +56,39 @@ function hashPath(path: readonly number[]): number {
 
 class Xoshiro128 implements Rng {
 	readonly path: readonly number[];
-	private a: number;
-	private b: number;
-	private c: number;
-	private d: number;
+	/** State words a, b, c, d as int32 (typed storage avoids boxing 32-bit values). */
+	private readonly s = new Int32Array(4);
 	private spare = 0;
 	private hasSpare = false;
 
 	constructor(path: readonly number[]) {
 		this.path = path;
 		const sm = splitmix32(hashPath(path));
-		this.a = sm();
-		this.b = sm();
-		this.c = sm();
-		this.d = sm();
-		if ((this.a | this.b | this.c | this.d) === 0) this.a = 1;
+		const s = this.s;
+		s[0] = sm();
+		s[1] = sm();
+		s[2] = sm();
+		s[3] = sm();
+		if ((s[0] | s[1] | s[2] | s[3]) === 0) s[0] = 1;
+	}
+
+	/** Next output as a signed 32-bit integer (same bits as nextU32). */
+	private nextI32(): number {
+		const s = this.s;
+		const b = s[1];
+		const result = Math.imul(rotl(Math.imul(b, 5), 7), 9);
+		const t = b << 9;
+		s[2] ^= s[0];
+		s[3] ^= s[1];
+		s[1] ^= s[2];
+		s[0] ^= s[3];
+		s[2] ^= t;
+		s[3] = rotl(s[3], 11);
+		return result;
 	}
 
 	private nextU32(): number {
-		const result = Math.imul(rotl(Math.imul(this.b, 5), 7), 9) >>> 0;
-		const t = this.b << 9;
-		this.c ^= this.a;
-		this.d ^= this.b;
-		this.b ^= this.c;
-		this.a ^= this.d;
-		this.c ^= t;
-		this.d = rotl(this.d, 11);
-		return result;
+		return this.nextI32() >>> 0;
 	}
 
 	next(): number {
@@ -102,13 +116,73 @@ class Xoshiro128 implements Rng {
 		return Math.floor(this.next() * n);
 	}
 
+	fillNormal(out: Float64Array, offset: number, count: number, scale = 1): void {
+		const st = this.s;
+		let a = st[0];
+		let b = st[1];
+		let c = st[2];
+		let d = st[3];
+		const end = offset + count;
+		for (let t = offset; t < end; t++) {
+			// Inlined xoshiro128** step on local words (same sequence as nextI32).
+			const u = Math.imul(rotl(Math.imul(b, 5), 7), 9);
+			const sh = b << 9;
+			c ^= a;
+			d ^= b;
+			b ^= c;
+			a ^= d;
+			c ^= sh;
+			d = (d << 11) | (d >>> 21);
+			const iz = u & 127;
+			const hz = u >> 7;
+			if ((hz < 0 ? -hz : hz) < ZIG_K[iz]) out[t] = scale * hz * ZIG_W[iz];
+			else {
+				st[0] = a;
+				st[1] = b;
+				st[2] = c;
+				st[3] = d;
+				out[t] = scale * this.zigguratSlow(hz, iz);
+				a = st[0];
+				b = st[1];
+				c = st[2];
+				d = st[3];
+			}
+		}
+		st[0] = a;
+		st[1] = b;
+		st[2] = c;
+		st[3] = d;
+	}
+
+	/** Ziggurat rejection step for draws outside a layer's rectangle (Marsaglia & Tsang 2000, nfix). */
+	private zigguratSlow(hz: number, iz: number): number {
+		for (;;) {
+			if (iz === 0) {
+				let x: number;
+				let y: number;
+				do {
+					x = -Math.log(1 - this.next()) / ZIG_R;
+					y = -Math.log(1 - this.next());
+				} while (y + y < x * x);
+				return hz > 0 ? ZIG_R + x : -ZIG_R - x;
+			}
+			const x = hz * ZIG_W[iz];
+			if (ZIG_F[iz] + this.next() * (ZIG_F[iz - 1] - ZIG_F[iz]) < Math.exp(-0.5 * x * x)) return x;
+			const u = this.nextI32();
+			iz = u & 127;
+			hz = u >> 7;
+			if ((hz < 0 ? -hz : hz) < ZIG_K[iz]) return hz * ZIG_W[iz];
+		}
+	}
+
 	split(key: number): Rng {
 		return new Xoshiro128([...this.path, key]);
 	}
 }
 
+/** 32-bit rotate left; int32 result. */
 function rotl(x: number, k: number): number {
-	return ((x << k) | (x >>> (32 - k))) >>> 0;
+	return (x << k) | (x >>> (32 - k));
 }
 
 /** A stream for `seed` and an optional path of integer keys. */

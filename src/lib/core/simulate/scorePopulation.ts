@@ -32,12 +32,14 @@ export function scoreCovariance(prep: PreparedSimulation, mixing: Mixing, rep: n
 	const z = new Float64Array(n * d);
 	const y = new Float64Array(n * k);
 	const x = new Float64Array(p);
+	const eps = new Float64Array(p);
 	const out = new Float64Array(k);
 	const scratch = new Float64Array(2 * d);
 	for (let s = 0; s < n; s++) {
 		for (let j = 0; j < d; j++) z[s * d + j] = drawFactor(shapes[j], rng);
 		applyMixing(mixing, z, s * d, x, 0, scratch);
-		for (let i = 0; i < p; i++) x[i] += sigma * rng.normal();
+		rng.fillNormal(eps, 0, p, sigma);
+		for (let i = 0; i < p; i++) x[i] += eps[i];
 		if (rep_.kind === 'linear') {
 			for (let t = 0; t < k; t++) {
 				let v = 0;

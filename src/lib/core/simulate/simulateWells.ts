@@ -60,7 +60,7 @@ export function simulateWells(prep: PreparedSimulation, world: World, rep: numbe
 	for (let q = 0; q < prep.plates; q++) {
 		const r = rngFor(seed, rep, STREAM.PLATE, q);
 		const b = new Float64Array(p);
-		if (obs.plateEffect > 0) for (let i = 0; i < p; i++) b[i] = obs.plateEffect * r.normal();
+		if (obs.plateEffect > 0) r.fillNormal(b, 0, p, obs.plateEffect);
 		offsets.push(b);
 	}
 
@@ -70,6 +70,7 @@ export function simulateWells(prep: PreparedSimulation, world: World, rep: numbe
 	const clamped = new Uint8Array(d);
 	const eta = new Float64Array(d);
 	const x = new Float64Array(p);
+	const eps = new Float64Array(p);
 	const scratch = new Float64Array(2 * d);
 	let cellRow = 0;
 
@@ -102,18 +103,20 @@ export function simulateWells(prep: PreparedSimulation, world: World, rep: numbe
 					} else spread[j] = s[j] * Math.max(0, 1 + rr.effect[j]);
 				}
 		}
-		for (let j = 0; j < d; j++) eta[j] = tau * rng.normal();
+		rng.fillNormal(eta, 0, d, tau);
 		const off = offsets[q];
 		const row = w * p;
 		if (cells === 0) {
 			for (let j = 0; j < d; j++) z[j] = base[j] + eta[j];
 			applyMixing(world.mixing, z, 0, x, 0, scratch);
-			for (let i = 0; i < p; i++) profiles[row + i] = x[i] + off[i] + sigma * rng.normal();
+			rng.fillNormal(eps, 0, p, sigma);
+			for (let i = 0; i < p; i++) profiles[row + i] = x[i] + off[i] + eps[i];
 		} else {
 			for (let t = 0; t < cells; t++) {
 				for (let j = 0; j < d; j++) z[j] = base[j] + eta[j] + spread[j] * (clamped[j] ? rng.normal() : drawFactor(shapes[j], rng));
 				applyMixing(world.mixing, z, 0, x, 0, scratch);
-				for (let i = 0; i < p; i++) x[i] += off[i] + sigma * rng.normal();
+				rng.fillNormal(eps, 0, p, sigma);
+				for (let i = 0; i < p; i++) x[i] += off[i] + eps[i];
 				for (let i = 0; i < p; i++) profiles[row + i] += x[i];
 				if (t < keep) {
 					cellData.set(x, cellRow * p);
