@@ -10,7 +10,7 @@ export function ensureDeps() {
 	const marker = path.join(root, 'node_modules', '.package-lock.json');
 	if (!existsSync(marker)) {
 		console.log('Installing dependencies (npm ci)…');
-		execSync('npm ci', { cwd: root, stdio: 'inherit' });
+		execSync('npm ci --loglevel=notice', { cwd: root, stdio: 'inherit' });
 	}
 }
 
