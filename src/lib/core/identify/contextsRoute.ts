@@ -1,8 +1,7 @@
-import type { Fraction } from 'mathjs';
 import type { Context } from '../plan/types';
 import { addedContextsCost, type EvalContext } from './evalContext';
 import { capitalise } from './fixes';
-import { exactFraction, fractionRank } from './fractionRank';
+import { exactFraction, fractionRank, type Fraction } from './fractionRank';
 import { listText, money } from './labels';
 import { SOURCES } from './sources';
 import type { Check, FactorVerdict, Fix, RouteOutcome } from './types';
@@ -121,7 +120,7 @@ interface Modulation {
 /**
  * Modulation matrix L (Khemakhem et al. 2020, Theorem 1): for Gaussian factors the natural
  * parameters are λ = (m/v, −1/(2v)) (k = 2) or λ = −1/(2v) (k = 1, means all zero); column e is
- * λ(u_e) − λ(u_0) with u_0 the first context. Exact rank with mathjs fractions.
+ * λ(u_e) − λ(u_0) with u_0 the first context. Exact rank with fractions.
  */
 function modulation(ctx: EvalContext, contexts: Context[]): Modulation {
 	const k = contexts.some((c) => Object.values(c.mean).some((m) => m !== 0)) ? 2 : 1;

@@ -1,14 +1,18 @@
-import { fraction, type Fraction } from 'mathjs';
+// fraction.js is the rational type mathjs uses for its fractions; importing it directly avoids
+// loading all of mathjs (seconds of start-up) in the command line and in workers.
+import Fraction from 'fraction.js';
 import { decimalParts } from './decimalParts';
 
-/** Exact rational value of a plan number as written (e.g. 0.7 → 7/10), as a mathjs Fraction. */
+export { Fraction };
+
+/** Exact rational value of a plan number as written (e.g. 0.7 → 7/10), as a Fraction. */
 export function exactFraction(x: number): Fraction {
 	const { numerator, scale } = decimalParts(x);
-	return fraction(numerator, 10n ** BigInt(scale));
+	return new Fraction(numerator, 10n ** BigInt(scale));
 }
 
 /**
- * Rank of a dense rational matrix (`matrix[row][col]`, mathjs Fractions) by Gaussian
+ * Rank of a dense rational matrix (`matrix[row][col]`, fraction.js Fractions as used by mathjs) by Gaussian
  * elimination in exact arithmetic. Does not mutate its input. Stops once the rank reaches `cap`.
  */
 export function fractionRank(matrix: Fraction[][], cap = Infinity): number {

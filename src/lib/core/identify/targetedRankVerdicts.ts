@@ -1,6 +1,5 @@
-import { fraction, type Fraction } from 'mathjs';
 import { decimalParts } from './decimalParts';
-import { exactFraction, fractionRank } from './fractionRank';
+import { exactFraction, Fraction, fractionRank } from './fractionRank';
 import { maximumMatching, structuralNullSupport } from './maximumMatching';
 import { peelRank } from './peelRank';
 import { modularRank, PRIME_A, PRIME_B, residue, type ResidueColumn } from './modularRank';
@@ -13,7 +12,7 @@ export interface EffectColumn {
 
 export interface TargetedRankOptions {
 	/**
-	 * Exact-rank arithmetic: `fraction` (mathjs rational elimination), `modular` (two primes
+	 * Exact-rank arithmetic: `fraction` (rational elimination with fraction.js, the fractions of mathjs), `modular` (two primes
 	 * near 2^31 on effects scaled to integers), `auto` (default): fractions when d·R ≤ 400, or
 	 * `skip`: structural verdicts only (`exactRank` is then empty).
 	 */
@@ -101,11 +100,11 @@ export function targetedRankVerdicts(d: number, columns: EffectColumn[], options
 /** Exact rank of the submatrix on `rows` × `cols`, stopping at `cap`. */
 type ExactRank = (rows: number[], cols: number[], cap: number) => number;
 
-/** Rational rank with mathjs fractions (small plans). */
+/** Rational rank with exact fractions (small plans). */
 function fractionEngine(d: number, columns: EffectColumn[]): ExactRank {
 	let dense: Fraction[][] | null = null;
 	return (rows, cols, cap) => {
-		const zero = fraction(0);
+		const zero = new Fraction(0);
 		dense ??= columns.map((col) => {
 			const v = new Array<Fraction>(d).fill(zero);
 			col.rows.forEach((r, k) => (v[r] = exactFraction(col.values[k])));
