@@ -69,7 +69,9 @@ function ruleSvg(rule: ChartRule, x: (v: number) => number, y: (v: number) => nu
 	}
 	const px = x(rule.value);
 	if (!(px >= box.left - 0.5 && px <= box.right + 0.5)) return '';
-	return `<line x1="${n2(px)}" x2="${n2(px)}" y1="${n2(box.top)}" y2="${n2(box.bottom)}" ${attrs}/>` + text(px + 4, box.top + 12, clip(rule.label, 40), `font-size="11" fill="${CHART_COLOURS.rule}"`);
+	// Vertical rules are labelled just above the plot area, where no data or value label sits.
+	const anchor = px > (box.left + box.right) / 2 ? 'end' : 'start';
+	return `<line x1="${n2(px)}" x2="${n2(px)}" y1="${n2(box.top - 2)}" y2="${n2(box.bottom)}" ${attrs}/>` + text(px + (anchor === 'end' ? -3 : 3), box.top - 5, clip(rule.label, 40), `text-anchor="${anchor}" font-size="11" fill="${CHART_COLOURS.rule}"`);
 }
 
 function markerSvg(shape: string, x: number, y: number, colour: string): string {
@@ -100,7 +102,7 @@ function frame(box: { left: number; right: number; top: number; bottom: number }
 function xySvg(c: XYChart): string {
 	const legendRows = Math.ceil(c.series.length / 3);
 	const height = 300 + legendRows * 18;
-	const box = { left: 62, right: W - 18, top: 30, bottom: 246 };
+	const box = { left: 62, right: W - 18, top: 40, bottom: 246 };
 	const xs: number[] = [];
 	const ys: number[] = [];
 	for (const s of c.series)
@@ -145,7 +147,7 @@ function xySvg(c: XYChart): string {
 
 function histogramSvg(c: HistogramChart): string {
 	const height = 290;
-	const box = { left: 62, right: W - 18, top: 30, bottom: 246 };
+	const box = { left: 62, right: W - 18, top: 40, bottom: 246 };
 	const xs = c.bins.flatMap((b) => [b.lo, b.hi]).concat(c.rules.filter((r) => r.axis === 'x').map((r) => r.value));
 	const xt = axis(xs, xs.length ? [Math.min(...xs), Math.max(...xs)] : [0, 1]);
 	const yt = axis([0, ...c.bins.map((b) => b.count)], undefined, true);
@@ -165,7 +167,7 @@ function histogramSvg(c: HistogramChart): string {
 function barsSvg(c: BarChart): string {
 	const rowH = 22;
 	const labelW = 190;
-	const box = { left: labelW + 8, right: W - 60, top: 34, bottom: 34 + Math.max(1, c.bars.length) * rowH };
+	const box = { left: labelW + 8, right: W - 60, top: 42, bottom: 42 + Math.max(1, c.bars.length) * rowH };
 	const height = box.bottom + 46;
 	const xt = axis([], c.domain);
 	const x = scale(c.domain[0], c.domain[1], box.left, box.right);

@@ -46,6 +46,7 @@ th{border-bottom:1.5px solid var(--ink);font-weight:600;background:var(--band)}
 td.num,th.num{text-align:right;font-variant-numeric:tabular-nums}
 tbody tr:last-child td{border-bottom:1.5px solid var(--ink)}
 code{font-family:ui-monospace,'DejaVu Sans Mono',Menlo,Consolas,monospace;font-size:.86em;overflow-wrap:anywhere}
+td code{white-space:nowrap;overflow-wrap:normal}
 .tone{font-weight:600;white-space:nowrap}
 .tone-good .mark,.tone.tone-good{color:var(--good)}.tone.tone-warn{color:var(--warn)}.tone.tone-bad{color:var(--bad)}
 dl.rp-facts{display:grid;grid-template-columns:minmax(12rem,max-content) 1fr;gap:.15rem 1.2rem;margin:.6rem 0 1rem;font-size:.93rem}
@@ -69,6 +70,7 @@ html,body{background:#fff}
 body{max-width:none;padding:0;font-size:10pt}
 nav.rp-toc a{color:inherit;text-decoration:none}
 section.rp-section{break-before:page;page-break-before:always;margin-top:0}
+section.rp-section:first-of-type{break-before:auto;page-break-before:auto;margin-top:1.5rem}
 h2,h3,h4{break-after:avoid;page-break-after:avoid}
 table{font-size:8.4pt}
 thead{display:table-header-group}

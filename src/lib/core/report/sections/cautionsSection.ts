@@ -9,7 +9,27 @@ export const STANDING_CAUTIONS = [
 	'Follow your local biosafety rules and obtain the institutional approvals required for the reagents, cells and organisms used; this planner does not check them.'
 ];
 
-/** Standing cautions, then those of the checks, the sizing and the situation (no pilot, unknown targets, …), without repeats. */
+/** A component caution that repeats a standing one (review, biosafety, approvals) is left out. */
+function coveredByStanding(caution: string): boolean {
+	return /statistician|biosafety/i.test(caution);
+}
+
+/** Distinct, non-empty items in first-seen order, leaving out those already in `seen`. */
+function distinct(items: string[], seen: Set<string>): string[] {
+	return items.filter((c) => {
+		const key = c.trim();
+		if (!key || seen.has(key)) return false;
+		seen.add(key);
+		return true;
+	});
+}
+
+/**
+ * Cautions in three groups: the standing ones and those of the situation (no pilot, unknown
+ * targets, nonlinear mixing, unrecoverable factors, an infeasible sizing); then those of the
+ * checks and of the sizing, without repeats (cautions repeating the standing review and biosafety
+ * caution are left out of the later groups).
+ */
 export function cautionsSection(ctx: ReportContext): ReportSection {
 	const { plan, inputs } = ctx;
 	const situational: string[] = [];
@@ -19,14 +39,11 @@ export function cautionsSection(ctx: ReportContext): ReportSection {
 	if (plan.reagents.some((r) => r.targets === null)) situational.push('Some reagents have unknown targets: the symbolic checks cannot judge them, and their contribution rests on the simulation alone.');
 	if (inputs.check.factors.some((f) => f.verdict !== 'individual')) situational.push('Not every factor can be recovered individually with this design (see the verdicts); the factors reported as blocks or not at all cannot be interpreted one by one.');
 	if (inputs.sizing && !inputs.sizing.feasible) situational.push('The sizing found no design that reaches the goal within the budget.');
-	const all = [...STANDING_CAUTIONS, ...situational, ...inputs.check.cautions, ...(inputs.sizing?.cautions ?? [])];
 	const seen = new Set<string>();
-	const items = all.filter((c) => {
-		const key = c.trim();
-		if (!key || seen.has(key)) return false;
-		seen.add(key);
-		return true;
-	});
-	const blocks: ReportBlock[] = [{ kind: 'callout', tone: 'caution', title: 'Read before relying on this plan', items }];
+	const blocks: ReportBlock[] = [{ kind: 'callout', tone: 'caution', title: 'Read before relying on this plan', items: distinct([...STANDING_CAUTIONS, ...situational], seen) }];
+	const fromChecks = distinct(inputs.check.cautions.filter((c) => !coveredByStanding(c)), seen);
+	if (fromChecks.length) blocks.push({ kind: 'callout', tone: 'caution', title: 'About the verdicts', items: fromChecks });
+	const fromSizing = distinct((inputs.sizing?.cautions ?? []).filter((c) => !coveredByStanding(c)), seen);
+	if (fromSizing.length) blocks.push({ kind: 'callout', tone: 'caution', title: 'About the sizing', items: fromSizing });
 	return { id: 'cautions', title: SECTION_TITLES.cautions, hasResults: true, blocks };
 }

@@ -1,4 +1,5 @@
-import type { Design } from '../../plan/types';
+import type { Design, Plan } from '../../plan/types';
+import type { SizeResult } from '../../size/types';
 import { designCost } from '../../size/costModel';
 import { formatNumber } from '../formatNumber';
 import type { ReportBlock, ReportSection } from '../types';
@@ -8,9 +9,9 @@ import { SECTION_TITLES, emptySection, type ReportContext } from './context';
  * The design the report stands for: the one fixed in the plan (adopted), else the sizing's
  * recommendation (or the best the budget buys), else null.
  */
-export function reportDesign(ctx: Pick<ReportContext, 'plan' | 'inputs'>): { design: Design; role: 'adopted' | 'recommended' | 'best affordable' } | null {
-	if (ctx.plan.design) return { design: ctx.plan.design, role: 'adopted' };
-	const s = ctx.inputs.sizing;
+export function reportDesign(plan: Plan, sizing?: SizeResult | null): { design: Design; role: 'adopted' | 'recommended' | 'best affordable' } | null {
+	if (plan.design) return { design: plan.design, role: 'adopted' };
+	const s = sizing;
 	if (s?.design) {
 		const { reagents, replicates, controlsPerPlate, contexts, cellsPerWell, plates } = s.design;
 		const design: Design = { reagents, replicates, controlsPerPlate, contexts, plates, ...(cellsPerWell !== undefined ? { cellsPerWell } : {}) };
@@ -21,7 +22,7 @@ export function reportDesign(ctx: Pick<ReportContext, 'plan' | 'inputs'>): { des
 
 /** The adopted or recommended design with its full cost breakdown (from the cost model). */
 export function designSection(ctx: ReportContext): ReportSection {
-	const chosen = reportDesign(ctx);
+	const chosen = reportDesign(ctx.plan, ctx.inputs.sizing);
 	if (!chosen)
 		return emptySection(
 			ctx,

@@ -12,7 +12,7 @@ export function glance(ctx: ReportContext): ReportModel['glance'] {
 	out.push({ label: 'Factors recoverable individually', value: `${individual} of ${n}`, tone: individual === n ? 'good' : individual > 0 ? 'warn' : 'bad', section: 'verdicts' });
 	const fails = inputs.check.checks.filter((c) => c.status === 'fail').length;
 	const warns = inputs.check.checks.filter((c) => c.status === 'warn').length;
-	out.push({ label: 'Checks', value: `${fails} failed, ${warns} warnings, ${inputs.check.checks.length - fails - warns} passed`, tone: fails ? 'bad' : warns ? 'warn' : 'good', section: 'verdicts' });
+	out.push({ label: 'Checks', value: `${fails} failed, ${warns} warning${warns === 1 ? '' : 's'}, ${inputs.check.checks.length - fails - warns} passed`, tone: fails ? 'bad' : warns ? 'warn' : 'good', section: 'verdicts' });
 	const sim = inputs.simulation;
 	out.push(
 		sim && sim.reps > 0
@@ -30,7 +30,7 @@ export function glance(ctx: ReportContext): ReportModel['glance'] {
 			? { label: 'Sizing', value: s.feasible && s.design ? `feasible, ${ctx.money(s.design.cost)}` : `not feasible${s.budgetNeeded !== null ? `; the goal needs ${ctx.money(s.budgetNeeded)}` : ''}`, tone: s.feasible ? 'good' : 'bad', section: 'sizing' }
 			: { label: 'Sizing', value: plan.design ? 'not run (design fixed in the plan)' : 'no results yet', tone: 'neutral', section: 'sizing' }
 	);
-	const chosen = reportDesign(ctx);
+	const chosen = reportDesign(plan, inputs.sizing);
 	out.push(
 		chosen
 			? { label: `Design (${chosen.role})`, value: `${chosen.design.reagents.length} reagents × ${chosen.design.replicates} replicates`, tone: chosen.role === 'best affordable' ? 'warn' : 'neutral', section: 'design' }

@@ -57,7 +57,10 @@ export function simulationSection(ctx: ReportContext): ReportSection {
 		]
 	});
 	if (sim.mccs.length) {
-		const lo = Math.min(0, ...sim.mccs.filter(Number.isFinite));
+		// Bins of width 0.025 from the tenth below the lowest score (or the goal) up to 1.
+		const finite = sim.mccs.filter(Number.isFinite);
+		const lowest = Math.min(sim.goalMcc, ...finite);
+		const lo = Math.max(lowest < 0 ? -1 : 0, Math.floor(lowest * 10 - 1e-9) / 10);
 		blocks.push({
 			kind: 'chart',
 			caption: `Distribution of the recovery score over ${sim.reps} simulated experiments; the dashed line is the goal.`,
@@ -66,7 +69,7 @@ export function simulationSection(ctx: ReportContext): ReportSection {
 				title: 'Recovery score (MCC) per simulated experiment',
 				xLabel: 'MCC after optimal matching',
 				yLabel: 'experiments',
-				bins: binValues(sim.mccs, lo < 0 ? lo : 0, 1, lo < 0 ? 25 : 20),
+				bins: binValues(finite, lo, 1, Math.max(4, Math.round((1 - lo) / 0.025))),
 				rules: [{ axis: 'x', value: sim.goalMcc, label: `goal ${sim.goalMcc}` }]
 			}
 		});

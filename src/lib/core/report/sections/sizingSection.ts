@@ -39,19 +39,20 @@ export function sizingSection(ctx: ReportContext): ReportSection {
 
 	if (s.frontier.length) {
 		blocks.push({ kind: 'heading', text: 'Frontier: cost against assurance' });
+		// The budget line is drawn when it lies near the frontier; far to the right it would squeeze the points.
+		const maxCost = Math.max(...s.frontier.map((f) => f.cost));
+		const budget = ctx.plan.budget.total;
+		const showBudget = budget <= 1.5 * maxCost;
 		blocks.push({
 			kind: 'chart',
-			caption: 'Each point is a design that no cheaper design beats on assurance; bars are Wilson 95 % intervals. Dashed lines: the required assurance and the budget.',
+			caption: `Each point is a design that no cheaper design beats on assurance; bars are Wilson 95 % intervals. Dashed lines: the required assurance${showBudget ? ' and the budget' : `; the budget (${ctx.money(budget)}) lies beyond the right edge`}.`,
 			chart: {
 				kind: 'xy',
 				title: 'Assurance against cost',
 				xLabel: `design cost (${ctx.plan.budget.currency})`,
 				yLabel: 'assurance',
 				series: [{ label: 'frontier designs', points: s.frontier.map((f) => ({ x: f.cost, y: f.assurance, lo: f.lo, hi: f.hi })), line: true, marker: 'circle', style: 0 }],
-				rules: [
-					{ axis: 'y', value: goal.assurance, label: `required ${goal.assurance}` },
-					{ axis: 'x', value: ctx.plan.budget.total, label: 'budget' }
-				],
+				rules: [{ axis: 'y', value: goal.assurance, label: `required ${goal.assurance}` }, ...(showBudget ? [{ axis: 'x' as const, value: budget, label: 'budget' }] : [])],
 				yDomain: [0, 1]
 			}
 		});
