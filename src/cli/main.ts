@@ -17,6 +17,7 @@ const commands: Record<string, () => Promise<{ command: Command }>> = {
 	check: () => import('./commands/check'),
 	layout: () => import('./commands/layout'),
 	pilot: () => import('./commands/pilot'),
+	report: () => import('./commands/report'),
 	size: () => import('./commands/size'),
 	simulate: () => import('./commands/simulate')
 };
