@@ -12,8 +12,9 @@ import { NEGATIVE_CONTROL, POSITIVE_CONTROL, type PilotAnalysisOptions, type Pil
 import { zPrime as zPrimeOf } from './zPrime';
 
 const SCALE_RULE =
+	'features are first divided by their measurement-noise SD (the replicate variance left after the factor directions); ' +
 	'k = Σ measured effect norms / Σ (efficacy × stated effect norms) over the pilot reagents that shift means, ' +
-	'with a measured norm = √((‖Δ‖² − tr Ĉ·(1/n + 1/n₀)) / p) in control-normalised units (RMS per feature); ' +
+	'with a measured norm = √((‖Δ‖² − tr Ĉ·(1/n + 1/n₀)) / p) (RMS per feature); ' +
 	'noise and plate SDs are divided by k, so a one-SD factor change moves the profile by an RMS of 1 per feature in plan feature units';
 
 /**
@@ -30,7 +31,10 @@ const SCALE_RULE =
  * 4. per-reagent effect: bias-corrected norm of (reagent mean − control mean), and its
  *    Mahalanobis distance with Ĉ (pooled, bias-corrected) when ν ≥ 4p, else with a Ledoit–Wolf
  *    covariance (the bias-corrected pooled distance is too noisy with fewer wells);
- * 5. the scale k (SCALE_RULE) converts feature-space values to factor SD units;
+ * 5. the scale k (SCALE_RULE) converts feature-space values to factor SD units, after dividing
+ *    each feature by its measurement-noise SD (the plan model has the same measurement noise and
+ *    plate effect on every feature; without this step features that carry little factor signal
+ *    would inflate both by 20–30%);
  * 6. signal dimension: in the leading min(G − 1, ν/2, maxDimensions) principal components of the
  *    profiles, roots of the noise-whitened group means (groupRoots) counted above the
  *    1 − alpha quantile of the largest root under within-plate label permutation, with the
@@ -162,8 +166,16 @@ export function analysePilot(plan: Plan, table: PilotTable, options: PilotAnalys
 			spikes = count;
 		}
 	} else warnings.push('Only one feature varies: replicate noise and measurement noise cannot be told apart; all replicate scatter is counted as measurement noise.');
-	let excess = 0;
-	for (let i = 0; i < spikes; i++) excess += lambda[i] - bulk;
+	// Put every feature on a common measurement-noise scale (divide by its bulk SD) before converting
+	// to plan units: the plan's measurement noise and plate effect are the same on every feature.
+	const noiseVar = bulkVariances(diagC, cov.v, lambda, rank, p, spikes);
+	let noiseMax = 0;
+	for (const t of noiseVar) noiseMax = Math.max(noiseMax, t);
+	const weight = Float64Array.from(noiseVar, (t) => 1 / Math.max(t, 1e-9 * noiseMax, 1e-300));
+	let traceW = 0;
+	for (let j = 0; j < p; j++) traceW += diagC[j] * weight[j];
+	// Replicate variance beyond the measurement noise, summed over features (whitened units).
+	const excess = p >= 2 ? Math.max(0, traceW - p) : 0;
 
 	// 4. Effects and distances.
 	const controlOf = new Map<string, number>();
@@ -212,8 +224,8 @@ export function analysePilot(plan: Plan, table: PilotTable, options: PilotAnalys
 			const delta = new Float64Array(p);
 			for (let j = 0; j < p; j++) delta[j] = means[gi][j] - means[c][j];
 			let d = 0;
-			for (let j = 0; j < p; j++) d += delta[j] * delta[j];
-			norm2 += nG * (d - traceC * (1 / nG + 1 / nC));
+			for (let j = 0; j < p; j++) d += delta[j] * delta[j] * weight[j];
+			norm2 += nG * (d - traceW * (1 / nG + 1 / nC));
 			dist2 += nG * mahalanobis2(delta, nG, nC);
 		}
 		measured.set(id, { featureNorm: Math.sqrt(Math.max(0, norm2 / e.wells) / p), distance: Math.sqrt(Math.max(0, dist2 / e.wells)) });
@@ -252,11 +264,16 @@ export function analysePilot(plan: Plan, table: PilotTable, options: PilotAnalys
 		let tau2 = spikes > 0 ? excess / (p * spikes) / (k * k) : 0;
 		if (cells !== null) tau2 = Math.max(0, tau2 - 1 / cells);
 		replicateNoise = Math.sqrt(Math.max(0, tau2));
-		measurementNoise = Math.sqrt(bulk * (cells ?? 1)) / k;
-		if (norm.plateVariance !== null) plateEffect = Math.sqrt(norm.plateVariance) / k;
+		// In whitened units the measurement variance is 1 per feature.
+		measurementNoise = Math.sqrt(p >= 2 ? (cells ?? 1) : traceW * (cells ?? 1)) / k;
+		if (norm.plateVariances !== null) {
+			let pv = 0;
+			for (let j = 0; j < p; j++) pv += norm.plateVariances[j] * weight[j];
+			plateEffect = Math.sqrt(Math.max(0, pv / p)) / k;
+		}
 		if (spikes === 0) notes.push('No replicate-noise direction stands above the measurement-noise bulk: replicate noise in factor space is estimated as 0.');
 	}
-	if (norm.plateVariance === null) notes.push('One plate per context: the plate effect cannot be estimated; the plan keeps its value.');
+	if (norm.plateVariances === null) notes.push('One plate per context: the plate effect cannot be estimated; the plan keeps its value.');
 
 	// 6. Signal dimension.
 	// Test in at most G − 1 dimensions (the rank of the group means): more dimensions only add noise roots.

@@ -7,10 +7,12 @@ export interface NormalisedPilot {
 	/** Pooled within-plate robust SD of the controls per feature (the common scale). */
 	scale: Float64Array;
 	/**
-	 * Between-plate variance of the control means per feature, in units of `scale`, averaged
-	 * over features and corrected for the control wells' own scatter (plate means of controls
-	 * compared within each context); null with fewer than two plates per context.
+	 * Between-plate variance of the control means per feature, in units of `scale`, corrected
+	 * for the control wells' own scatter (plate means of controls compared within each context),
+	 * floored at 0; null with fewer than two plates per context.
 	 */
+	plateVariances: Float64Array | null;
+	/** Mean of `plateVariances` over features (null likewise). */
 	plateVariance: number | null;
 	/** Features whose scale on some plate fell back to the pooled scale (plate MAD was 0; 'plate' scaling only). */
 	fallbacks: number;
@@ -76,7 +78,9 @@ export function normalisePilot(x: Float64Array, wells: readonly PilotWell[], p: 
 		const q = wells[i].plate;
 		for (let j = 0; j < p; j++) y[i * p + j] = (x[i * p + j] - centre[q * p + j]) / plateScale[q * p + j];
 	}
-	return { y, scale, plateVariance: plateVariance(x, wells, p, scale), fallbacks };
+	const plateVariances = perFeaturePlateVariance(x, wells, p, scale);
+	const plateVariance = plateVariances === null ? null : plateVariances.reduce((s, v) => s + v, 0) / p;
+	return { y, scale, plateVariances, plateVariance, fallbacks };
 }
 
 function rootMeanSquare(values: number[]): number {
@@ -86,12 +90,11 @@ function rootMeanSquare(values: number[]): number {
 }
 
 /**
- * Plate effect variance: within each context, the variance across plates of the plates'
- * control means (feature j scaled by scale[j]) minus the mean of (within-plate control
- * variance / controls); pooled over contexts by degrees of freedom, averaged over features,
- * floored at 0.
+ * Plate effect variance per feature: within each context, the variance across plates of the
+ * plates' control means (feature j scaled by scale[j]) minus the mean of (within-plate control
+ * variance / controls); pooled over contexts by degrees of freedom, floored at 0.
  */
-function plateVariance(x: Float64Array, wells: readonly PilotWell[], p: number, scale: Float64Array): number | null {
+function perFeaturePlateVariance(x: Float64Array, wells: readonly PilotWell[], p: number, scale: Float64Array): Float64Array | null {
 	const cells = new Map<string, { context: string; rows: number[] }>();
 	wells.forEach((w, i) => {
 		if (w.reagent !== NEGATIVE_CONTROL) return;
@@ -110,7 +113,7 @@ function plateVariance(x: Float64Array, wells: readonly PilotWell[], p: number, 
 	let dof = 0;
 	for (const list of byContext.values()) if (list.length >= 2) dof += list.length - 1;
 	if (dof === 0) return null;
-	let total = 0;
+	const out = new Float64Array(p);
 	for (let j = 0; j < p; j++) {
 		let between = 0;
 		let correction = 0;
@@ -133,7 +136,7 @@ function plateVariance(x: Float64Array, wells: readonly PilotWell[], p: number, 
 			// E[Σ(m − m̄)²] = (Q − 1)σ²_plate + (1 − 1/Q)Σ vᵢ/nᵢ
 			correction += (noise * (list.length - 1)) / list.length;
 		}
-		total += (between - correction) / dof;
+		out[j] = Math.max(0, (between - correction) / dof);
 	}
-	return Math.max(0, total / p);
+	return out;
 }
