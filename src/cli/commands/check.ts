@@ -1,5 +1,5 @@
 import type { Command } from '../main';
-import { assertKnownFlags } from '../args';
+import { assertKnownFlags, UsageError } from '../args';
 import { emit, readPlanFile } from '../io';
 import { checkPlan, type CheckResult } from '../../lib/core/identify';
 import type { Plan } from '../../lib/core/plan';
@@ -10,7 +10,7 @@ export const command: Command = {
 	usage: 'identiplate check PLAN [--json]',
 	async run(args) {
 		assertKnownFlags(args, ['json']);
-		if (args.positional.length > 1) throw new (await import('../args')).UsageError(`expected one PLAN file, got ${args.positional.length} arguments`);
+		if (args.positional.length > 1) throw new UsageError(`expected one PLAN file, got ${args.positional.length} arguments`);
 		const plan = readPlanFile(args.positional[0]);
 		const result = checkPlan(plan);
 		emit(args.flags.has('json'), toJson(result), () => toText(plan, result));
@@ -49,11 +49,21 @@ export function toText(plan: Plan, result: CheckResult): string {
 	lines.push(fmt(head), fmt(widths.map((w) => '-'.repeat(w))), ...rows.map(fmt));
 	lines.push('');
 	for (const f of result.factors) lines.push(`${f.id}: ${f.reason}`);
-	lines.push('', 'checks:');
-	for (const c of result.checks) {
-		lines.push(`  ${MARK[c.status]}  ${c.id}  ${c.message}`);
-		lines.push(`        source: ${c.source}`);
-		if (c.fix) lines.push(`        fix: ${c.fix.text}`);
+	const groups: { title: string; route: string }[] = [
+		{ route: 'targeted', title: 'targeted route (reagents with known targets)' },
+		{ route: 'contexts', title: 'contexts route (environments)' },
+		{ route: 'observational', title: 'observational route (factor shapes)' },
+		{ route: 'practical', title: 'practicalities' }
+	];
+	for (const g of groups) {
+		const list = result.checks.filter((c) => c.route === g.route);
+		if (!list.length) continue;
+		lines.push('', `${g.title}${g.route === result.route ? ' — the route these verdicts rely on' : ''}:`);
+		for (const c of list) {
+			lines.push(`  ${MARK[c.status]}  ${c.id}  ${c.message}`);
+			lines.push(`        source: ${c.source}`);
+			if (c.fix) lines.push(`        fix: ${c.fix.text}`);
+		}
 	}
 	const counts = { pass: 0, warn: 0, fail: 0 };
 	for (const c of result.checks) counts[c.status]++;

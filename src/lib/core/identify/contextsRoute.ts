@@ -86,7 +86,7 @@ function linearContexts(ctx: EvalContext): RouteOutcome {
 		route: 'contexts',
 		status: blocks.length ? 'fail' : 'pass',
 		message: blocks.length
-			? `These factors change their variance across the contexts in the same proportions (or not at all), so they stay mixed: ${blocks.map((blk) => `{${listText(blk.map((j) => label(ids[j])))}}`).join('; ')}.`
+			? `These factors change their variance across the contexts in the same proportions (or not at all), so they stay mixed: ${blocks.map((blk) => `{${blk.map((j) => label(ids[j])).join(', ')}}`).join('; ')}.`
 			: "Every factor's variance changes across the contexts in proportions no other factor shares, so joint diagonalisation can separate them.",
 		source: SOURCES.variance,
 		factors: blocks.flat().sort((x, y) => x - y).map((j) => ids[j]),
@@ -162,7 +162,7 @@ function nonlinearContexts(ctx: EvalContext): RouteOutcome {
 		status = 'fail';
 		message = !enough
 			? `Nonlinear mixing needs at least n·k + 1 = ${need + 1} contexts (n = ${n} factors, k = ${m.k} for ${what}); the design uses ${E}.`
-			: `The ${E} contexts do not change the factors' ${what} independently of each other: the modulation matrix has rank ${m.rank}, it needs ${need}.`;
+			: `The ${E} contexts do not change the factors' ${what} independently of each other: the modulation matrix has rank ${m.rank}, it needs ${need} (from at least n·k + 1 = ${need + 1} contexts).`;
 		fix = greedyContexts(ctx, m) ?? {
 			text: !enough
 				? `Add at least ${need + 1 - E} more context${need + 1 - E === 1 ? '' : 's'} (${need + 1} in all) that change the factors' ${what} in different proportions.`

@@ -45,7 +45,7 @@ function pushUnknown(ctx: EvalContext, unknown: Reagent[], checks: Check[]) {
 		id: 'targeted.unknown',
 		route: 'targeted',
 		status: 'warn',
-		message: `${listText(unknown.map(reagentLabel))} ${unknown.length === 1 ? 'has' : 'have'} unknown targets and ${unknown.length === 1 ? 'is' : 'are'} left out of these checks; what ${unknown.length === 1 ? 'it adds' : 'they add'} can only be judged by simulation with sparsity-seeking unmixing.`,
+		message: `${listText(unknown.map((r) => (unknown.length > 3 ? r.id : reagentLabel(r))))} ${unknown.length === 1 ? 'has' : 'have'} unknown targets and ${unknown.length === 1 ? 'is' : 'are'} left out of these checks; what ${unknown.length === 1 ? 'it adds' : 'they add'} can only be judged by simulation with sparsity-seeking unmixing.`,
 		source: SOURCES.unknown,
 		fix: null
 	});
@@ -107,7 +107,7 @@ function linearTargeted(ctx: EvalContext, known: Reagent[]): RouteOutcome {
 		route: 'targeted',
 		status: groups.length ? 'fail' : 'pass',
 		message: groups.length
-			? `No reagent tells apart the factors in ${groups.length === 1 ? 'this group' : 'these groups'}: ${groups.map((g) => `{${listText(g.map(label))}}`).join('; ')} — every reagent targets all of a group or none of it.`
+			? `No reagent tells apart the factors in ${groups.length === 1 ? 'this group' : 'these groups'}: ${groups.map((g) => `{${g.map(label).join(', ')}}`).join('; ')} — every reagent targets all of a group or none of it.`
 			: 'Every pair of factors is told apart by some reagent that targets one of them but not the other.',
 		source: SOURCES.separation,
 		factors: groups.flat().sort((a, b) => factorIndex.get(a)! - factorIndex.get(b)!),
