@@ -9,7 +9,8 @@ const workloads: Record<string, () => Promise<{ workload: Workload }>> = {
 	targeted: () => import('./workloads/targeted'),
 	ica: () => import('./workloads/ica'),
 	checks: () => import('./workloads/checks'),
-	layout: () => import('./workloads/layout')
+	layout: () => import('./workloads/layout'),
+	size: () => import('./workloads/size')
 };
 
 const argv = process.argv.slice(2);
