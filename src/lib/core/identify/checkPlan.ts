@@ -27,7 +27,7 @@ export function checkPlan(plan: Plan, design?: Design): CheckResult {
 	const routeVerdicts = outcomes.map((o) => o.verdicts);
 	const factors = bestVerdicts(ctx, routeVerdicts);
 	const route = requested === 'auto' ? topRoute(routeVerdicts) : requested;
-	checks.push(...practicalChecks(ctx, () => redundantReagents(ctx, routes, factors)));
+	checks.push(...practicalChecks(ctx, () => redundantReagents(ctx, routeVerdicts, factors)));
 	return { route, checks, factors, routes: routeVerdicts, design: ctx.design, cautions: cautions(ctx, route) };
 }
 
@@ -66,14 +66,18 @@ function topRoute(routes: RouteVerdicts[]): Route {
 
 /**
  * Design reagents, most expensive per well first, whose removal worsens no factor's best
- * verdict (structural ranks only). Stops at the first one found: the budget fix needs one.
+ * verdict (structural ranks only). Only the targeted route depends on the reagents, so the
+ * other routes' verdicts are reused. Stops at the first one found: the budget fix needs one.
  */
-function redundantReagents(ctx: EvalContext, routes: Route[], factors: FactorVerdict[]): string[] {
+function redundantReagents(ctx: EvalContext, routes: RouteVerdicts[], factors: FactorVerdict[]): string[] {
 	const order = new Map(ctx.design.reagents.map((id, i) => [id, i]));
 	const candidates = [...ctx.used].sort((a, b) => b.costPerWell - a.costPerWell || order.get(a.id)! - order.get(b.id)!);
+	const targetedAt = routes.findIndex((r) => r.route === 'targeted');
 	for (const r of candidates) {
+		if (targetedAt < 0) return [r.id];
 		const smaller = evalContext(ctx.plan, { ...ctx.design, reagents: ctx.design.reagents.filter((id) => id !== r.id) }, true);
-		const after = bestVerdicts(smaller, routes.map((route) => evaluateRoute(smaller, route).verdicts));
+		const trial = routes.map((rv, k) => (k === targetedAt ? targetedRoute(smaller).verdicts : rv));
+		const after = bestVerdicts(smaller, trial);
 		if (after.every((v, j) => compareVerdicts(v, factors[j]) >= 0)) return [r.id];
 	}
 	return [];
