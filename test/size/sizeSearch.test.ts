@@ -193,6 +193,33 @@ describe('sizePlan search logic (injected evaluator)', () => {
 		expect(res.tTest.every((t) => t.replicatesNeeded !== null && t.replicatesNeeded >= 2)).toBe(true);
 	});
 
+	it('a plan that fixes a design keeps its reagents and contexts and sizes the replicates', async () => {
+		const plan = { ...smallPlan({ budget: 1e6 }), design: { reagents: ['a1', 'a2', 'a3', 'p12'], replicates: 3, controlsPerPlate: 8, contexts: [] } };
+		const ev = ruleEvaluator(plan, (d) => d.replicates >= 5);
+		const res = await sizePlan(plan, { controls: [8], maxReplicates: 16 }, ev);
+		expect(new Set(ev.requests.map((r) => r.design.reagents.join(',')))).toEqual(new Set(['a1,a2,a3,p12']));
+		expect(res.design!.replicates).toBe(5);
+		expect(res.warnings.join(' ')).toMatch(/fixes a design/);
+	});
+
+	it('targeted route where known targets fall short: reagents with unknown targets join and the Monte Carlo decides', async () => {
+		const plan = smallPlan({
+			budget: 1e6,
+			reagents: [
+				{ id: 'k1', targets: ['f1'] },
+				{ id: 'u1', targets: null, expectedTargets: 1 },
+				{ id: 'u2', targets: null, expectedTargets: 1 },
+				{ id: 'u3', targets: null, expectedTargets: 2 }
+			]
+		});
+		const ev = ruleEvaluator(plan, (d) => d.replicates >= 4);
+		const res = await sizePlan(plan, { ...fixedSettings, curve: false }, ev);
+		expect(res.unreachable).toEqual([]);
+		expect(res.feasible).toBe(true);
+		expect(res.design!.reagents).toEqual(['k1', 'u1', 'u2', 'u3']);
+		expect(res.warnings.join(' ')).toMatch(/unknown targets are added/);
+	});
+
 	it('does not mutate the plan', async () => {
 		const plan = smallPlan();
 		const before = JSON.stringify(plan);
