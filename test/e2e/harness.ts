@@ -13,7 +13,6 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type { Server } from 'node:http';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
-// @ts-expect-error — a plain ES module of the project without type declarations
 import { createServer, listen } from '../../scripts/serve.mjs';
 
 /** Debian's Chromium; the wrapper script at /usr/bin/chromium also works but prints a shell warning. */
