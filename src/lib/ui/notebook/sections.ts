@@ -13,6 +13,7 @@ import BudgetSection from '../sections/BudgetSection.svelte';
 import DesignSection from '../sections/DesignSection.svelte';
 import VerdictSection from '../sections/VerdictSection.svelte';
 import RevisionsSection from '../sections/RevisionsSection.svelte';
+import SimulationSection from '../sections/SimulationSection.svelte';
 
 export interface NotebookSection {
 	/** Anchor and key of the section's notes; letters, digits and "-" only. */
@@ -29,5 +30,6 @@ export const sections: NotebookSection[] = [
 	{ id: 'budget', title: 'Budget, noise and goal', component: BudgetSection },
 	{ id: 'design', title: 'Design to check', component: DesignSection },
 	{ id: 'verdicts', title: 'Verdicts', component: VerdictSection },
+	{ id: 'simulation', title: 'Simulation', component: SimulationSection },
 	{ id: 'revisions', title: 'Revisions', component: RevisionsSection }
 ];
