@@ -11,6 +11,9 @@ import { statedEffectNorm } from './statedEffect';
 import { NEGATIVE_CONTROL, POSITIVE_CONTROL, type PilotAnalysisOptions, type PilotEstimates, type PilotReagentEstimate, type PilotTable } from './types';
 import { zPrime as zPrimeOf } from './zPrime';
 
+/** Normalised values beyond this many control SDs are refused (their squares would overflow). */
+const EXTREME = 1e12;
+
 const SCALE_RULE =
 	'features are first divided by their measurement-noise SD (the replicate variance left after the factor directions); ' +
 	'k = Σ measured effect norms / Σ (efficacy × stated effect norms) over the pilot reagents that shift means, ' +
@@ -85,6 +88,14 @@ export function analysePilot(plan: Plan, table: PilotTable, options: PilotAnalys
 	// 2. Normalisation and plate effect.
 	const norm = normalisePilot(x, table.wells, p, table.plates.length, options.scaling ?? 'pooled');
 	const y = norm.y;
+	for (let i = 0; i < nAll; i++) {
+		for (let j = 0; j < p; j++) {
+			const v = y[i * p + j];
+			if (!(Math.abs(v) <= EXTREME)) {
+				throw new PilotError(table.wells[i].line, table.features[kept[j]], `a value within 10¹² control SDs of its plate's control median (an extreme outlier or a unit error)`, String(x[i * p + j]));
+			}
+		}
+	}
 	if (norm.fallbacks) notes.push(`${norm.fallbacks} feature${norm.fallbacks > 1 ? 's' : ''} had a zero control MAD on some plate; the pooled control scale was used there.`);
 
 	// 3. Groups and replicate covariance.
