@@ -21,7 +21,9 @@ const H0 = [0x6a09e667, 0xbb67ae85, 0x3c6ef372, 0xa54ff53a, 0x510e527f, 0x9b0568
  * `TextEncoder` does, so the bytes equal what a browser or Node would write to a file.
  */
 export function utf8Bytes(text: string): Uint8Array {
-	const out: number[] = [];
+	// At most 3 bytes per UTF-16 code unit (a surrogate pair: 4 bytes for 2 units).
+	const out = new Uint8Array(text.length * 3);
+	let n = 0;
 	for (let i = 0; i < text.length; i++) {
 		let c = text.charCodeAt(i);
 		if (c >= 0xd800 && c <= 0xdbff && i + 1 < text.length) {
@@ -31,12 +33,22 @@ export function utf8Bytes(text: string): Uint8Array {
 				i++;
 			} else c = 0xfffd;
 		} else if (c >= 0xd800 && c <= 0xdfff) c = 0xfffd;
-		if (c < 0x80) out.push(c);
-		else if (c < 0x800) out.push(0xc0 | (c >> 6), 0x80 | (c & 63));
-		else if (c < 0x10000) out.push(0xe0 | (c >> 12), 0x80 | ((c >> 6) & 63), 0x80 | (c & 63));
-		else out.push(0xf0 | (c >> 18), 0x80 | ((c >> 12) & 63), 0x80 | ((c >> 6) & 63), 0x80 | (c & 63));
+		if (c < 0x80) out[n++] = c;
+		else if (c < 0x800) {
+			out[n++] = 0xc0 | (c >> 6);
+			out[n++] = 0x80 | (c & 63);
+		} else if (c < 0x10000) {
+			out[n++] = 0xe0 | (c >> 12);
+			out[n++] = 0x80 | ((c >> 6) & 63);
+			out[n++] = 0x80 | (c & 63);
+		} else {
+			out[n++] = 0xf0 | (c >> 18);
+			out[n++] = 0x80 | ((c >> 12) & 63);
+			out[n++] = 0x80 | ((c >> 6) & 63);
+			out[n++] = 0x80 | (c & 63);
+		}
 	}
-	return Uint8Array.from(out);
+	return out.slice(0, n);
 }
 
 /** SHA-256 digest (32 bytes) of `bytes`. */
