@@ -24,8 +24,8 @@ export interface NormalisedPilot {
  * normal data). `scaling: 'pooled'` (default) divides by the MAD of all controls around their
  * plate medians, the same for every plate; `'plate'` divides by each plate's own control MAD
  * (use it when plates differ in gain; with 16 controls a plate MAD is only good to about ±30%,
- * which distorts the profiles' geometry). Where a MAD is 0 (or below 10⁻⁶ of the spread of all
- * wells) the root mean square of the centred controls, then of all wells, is used.
+ * which distorts the profiles' geometry). Where a MAD is 0 (or below 10⁻⁶ of the robust spread
+ * of all wells) the root mean square of the centred controls, then that spread, is used.
  * `x` is row-major wells × p (already restricted to the kept features); it is not modified.
  */
 export function normalisePilot(x: Float64Array, wells: readonly PilotWell[], p: number, plates: number, scaling: 'pooled' | 'plate' = 'pooled'): NormalisedPilot {
@@ -53,11 +53,12 @@ export function normalisePilot(x: Float64Array, wells: readonly PilotWell[], p: 
 				centred.push(value - m);
 			}
 		}
-		// Spread of all wells around their plate's control median: the fallback when the controls
-		// are constant, and the floor (× 1e-6) below which a control scale counts as constant.
+		// Robust spread of all wells around their plate's control median: the fallback when the
+		// controls are constant, and the floor (× 1e-6) below which a control scale counts as constant.
 		const all: number[] = [];
 		for (let i = 0; i < n; i++) all.push(x[i * p + j] - centre[wells[i].plate * p + j]);
-		const overall = rootMeanSquare(all);
+		const absAll = all.map(Math.abs);
+		const overall = MAD_TO_SD * median(absAll) || rootMeanSquare(all);
 		const floor = 1e-6 * overall;
 		let s = MAD_TO_SD * median(deviations);
 		if (!(s > floor)) s = rootMeanSquare(centred);
