@@ -64,8 +64,8 @@ export const referenceLines: Plugin<ChartType, ReferenceLinesOptions> = {
 					ctx.textAlign = right ? 'right' : 'left';
 					ctx.fillText(line.label, right ? px - 4 : px + 4, area.top + 13);
 				} else {
-					ctx.textAlign = 'right';
-					ctx.fillText(line.label, area.right - 4, px - 3 < area.top + 12 ? px + 14 : px - 3);
+					ctx.textAlign = 'left';
+					ctx.fillText(line.label, area.left + 4, px - 3 < area.top + 12 ? px + 14 : px - 3);
 				}
 			}
 			ctx.restore();

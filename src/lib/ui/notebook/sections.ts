@@ -14,6 +14,7 @@ import DesignSection from '../sections/DesignSection.svelte';
 import VerdictSection from '../sections/VerdictSection.svelte';
 import RevisionsSection from '../sections/RevisionsSection.svelte';
 import SimulationSection from '../sections/SimulationSection.svelte';
+import SizingSection from '../sections/SizingSection.svelte';
 import LayoutSection from '../sections/LayoutSection.svelte';
 
 export interface NotebookSection {
@@ -32,6 +33,7 @@ export const sections: NotebookSection[] = [
 	{ id: 'design', title: 'Design to check', component: DesignSection },
 	{ id: 'verdicts', title: 'Verdicts', component: VerdictSection },
 	{ id: 'simulation', title: 'Simulation', component: SimulationSection },
+	{ id: 'sizing', title: 'Sizing', component: SizingSection },
 	{ id: 'layout', title: 'Plate layout', component: LayoutSection },
 	{ id: 'revisions', title: 'Revisions', component: RevisionsSection }
 ];
