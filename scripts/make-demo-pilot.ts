@@ -67,10 +67,13 @@ async function main() {
 	let rows = 0;
 	for (const row of simulatePilotRows(plan, options)) {
 		const line = Papa.unparse([row], { newline: '\n' }) + '\n';
-		if (!file.write(line)) await new Promise((resolve) => file.once('drain', resolve));
+		if (!file.write(line)) await new Promise<void>((resolve) => file.once('drain', () => resolve()));
 		rows++;
 	}
-	await new Promise<void>((resolve, reject) => file.end((err?: Error | null) => (err ? reject(err) : resolve())));
+	await new Promise<void>((resolve, reject) => {
+		file.once('error', reject);
+		file.end(() => resolve());
+	});
 	process.stdout.write(`wrote ${out}: ${rows - 1} data rows\n`);
 }
 

@@ -391,7 +391,10 @@ export function analysePilot(plan: Plan, table: PilotTable, options: PilotAnalys
 				for (let a = 0; a < rows.length; a++) {
 					for (let b = a + 1; b < rows.length; b++) {
 						const c = pearson(ya.subarray(rows[a] * p, (rows[a] + 1) * p), ya.subarray(rows[b] * p, (rows[b] + 1) * p));
-						if (Number.isFinite(c)) (sum += c), pairs++;
+						if (Number.isFinite(c)) {
+							sum += c;
+							pairs++;
+						}
 					}
 				}
 			}
