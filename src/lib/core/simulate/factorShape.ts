@@ -28,6 +28,33 @@ export function drawFactor(shape: FactorShape, rng: Rng): number {
 	}
 }
 
+/**
+ * Fills `count` draws of one standardised factor into out[offset], out[offset + stride], …
+ * (a column of a row-major sample matrix). Same distributions as drawFactor; Gaussian
+ * columns use the ziggurat bulk generator.
+ */
+export function fillFactor(shape: FactorShape, rng: Rng, out: Float64Array, offset: number, stride: number, count: number, scratch?: Float64Array): void {
+	if (shape === 'gaussian') {
+		const buf = scratch && scratch.length >= count ? scratch : new Float64Array(count);
+		rng.fillNormal(buf, 0, count);
+		for (let t = 0; t < count; t++) out[offset + t * stride] = buf[t];
+		return;
+	}
+	if (shape === 'laplace') {
+		for (let t = 0; t < count; t++) {
+			let u = rng.next() - 0.5;
+			while (u === -0.5) u = rng.next() - 0.5;
+			out[offset + t * stride] = u < 0 ? LAPLACE_B * Math.log(1 + 2 * u) : -LAPLACE_B * Math.log(1 - 2 * u);
+		}
+		return;
+	}
+	if (shape === 'uniform') {
+		for (let t = 0; t < count; t++) out[offset + t * stride] = (2 * rng.next() - 1) * UNIFORM_HALF;
+		return;
+	}
+	for (let t = 0; t < count; t++) out[offset + t * stride] = drawFactor(shape, rng);
+}
+
 /** Excess kurtosis of each standardised shape: gaussian 0, laplace 3, uniform −1.2, bimodal from its mixture moments. */
 export function excessKurtosis(shape: FactorShape): number {
 	switch (shape) {

@@ -1,5 +1,5 @@
 import { applyMixing } from './mixing';
-import { drawFactor } from './factorShape';
+import { fillFactor } from './factorShape';
 import { contextKey, STREAM } from './keys';
 import { rngFor, type Rng } from './rng';
 import type { PreparedSimulation } from './types';
@@ -12,7 +12,8 @@ import { CLAMP_SPREAD, meanOf, sdOf, type World } from './world';
  * (u_c from each factor's shape); a responding well (probability = efficacy) changes r's targets:
  * shift adds δ, clamp sets base to δ + CLAMP_SPREAD·N(0,1), scale multiplies s_e by max(0, 1 + δ);
  * η_w ~ N(0, τ²I) is replicate noise. x_c = g(z_c) + β_q + ε_c, β_q ~ N(0, σ_q²I), ε_c ~ N(0, σ²I).
- * Well profile = mean of its cells. At well level (cellsPerWell = 0) the well's latent state is
+ * Well profile = mean of its cells (each well's cells are drawn factor by factor, then mixed).
+ * At well level (cellsPerWell = 0) the well's latent state is
  * its cell mean m_e (+ the reagent's change) + η_w and x_w = g(z_w) + β_q + ε_w.
  *
  * Layout: rows 0…T−1 are the treatment wells in prep order, rows T… the controls in prep order.
@@ -73,6 +74,12 @@ export function simulateWells(prep: PreparedSimulation, world: World, rep: numbe
 	const eps = new Float64Array(p);
 	const scratch = new Float64Array(2 * d);
 	let cellRow = 0;
+	const linearMix = world.mixing.lambda === 0;
+	const a = world.mixing.a;
+	const zCells = new Float64Array(cells * d);
+	const xCells = new Float64Array(cells * p);
+	const zc = new Float64Array(cells);
+	const scratchCol = new Float64Array(cells);
 
 	for (let w = 0; w < nWells; w++) {
 		const isControl = w >= T;
@@ -112,17 +119,37 @@ export function simulateWells(prep: PreparedSimulation, world: World, rep: numbe
 			rng.fillNormal(eps, 0, p, sigma);
 			for (let i = 0; i < p; i++) profiles[row + i] = x[i] + off[i] + eps[i];
 		} else {
-			for (let t = 0; t < cells; t++) {
-				for (let j = 0; j < d; j++) z[j] = base[j] + eta[j] + spread[j] * (clamped[j] ? rng.normal() : drawFactor(shapes[j], rng));
-				applyMixing(world.mixing, z, 0, x, 0, scratch);
-				rng.fillNormal(eps, 0, p, sigma);
-				for (let i = 0; i < p; i++) x[i] += off[i] + eps[i];
-				for (let i = 0; i < p; i++) profiles[row + i] += x[i];
-				if (t < keep) {
-					cellData.set(x, cellRow * p);
-					cellWell[cellRow] = w;
-					cellRow++;
+			// All cells of the well at once: factor columns, then x = g(z) + β_q + ε row by row.
+			for (let j = 0; j < d; j++) {
+				if (clamped[j]) rng.fillNormal(zc, 0, cells, spread[j]);
+				else {
+					fillFactor(shapes[j], rng, zc, 0, 1, cells, scratchCol);
+					for (let t = 0; t < cells; t++) zc[t] *= spread[j];
 				}
+				const shift = base[j] + eta[j];
+				for (let t = 0; t < cells; t++) zCells[t * d + j] = zc[t] + shift;
+			}
+			rng.fillNormal(xCells, 0, cells * p, sigma);
+			for (let t = 0; t < cells; t++) {
+				const xr = t * p;
+				if (linearMix) {
+					const zr = t * d;
+					for (let i = 0; i < p; i++) {
+						let v = xCells[xr + i] + off[i];
+						const ai = i * d;
+						for (let j = 0; j < d; j++) v += a[ai + j] * zCells[zr + j];
+						xCells[xr + i] = v;
+					}
+				} else {
+					applyMixing(world.mixing, zCells, t * d, x, 0, scratch);
+					for (let i = 0; i < p; i++) xCells[xr + i] += x[i] + off[i];
+				}
+				for (let i = 0; i < p; i++) profiles[row + i] += xCells[xr + i];
+			}
+			if (keep > 0) {
+				cellData.set(xCells.subarray(0, keep * p), cellRow * p);
+				cellWell.fill(w, cellRow, cellRow + keep);
+				cellRow += keep;
 			}
 			for (let i = 0; i < p; i++) profiles[row + i] /= cells;
 		}
