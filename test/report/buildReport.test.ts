@@ -94,6 +94,23 @@ describe('buildReport', () => {
 		expect(rep).toContain('identiplate report plan.json --seed 5');
 	});
 
+	it('sets pilot estimates beside the plan the pilot was analysed against', () => {
+		const inputs = fullInputs(demoWithDesign());
+		const before = inputs.revisions!.find((r) => r.number === 1)!.plan;
+		const table = (model: ReportModel) => {
+			const b = model.sections.find((s) => s.id === 'pilot')!.blocks.find((x) => x.kind === 'table');
+			return b && b.kind === 'table' ? b.table : null;
+		};
+		// Without pilotPlan the current plan (which already carries the pilot's values) is the baseline.
+		const same = table(buildReport(inputs))!;
+		expect(same.columns[1].label).toBe('Plan');
+		expect(same.rows[0][1]).toBe(inputs.plan.observation.replicateNoise.toFixed(3));
+		const withBase = table(buildReport({ ...inputs, pilotPlan: before }))!;
+		expect(withBase.columns[1].label).toBe('Plan before the pilot');
+		expect(withBase.rows[0][1]).toBe(before.observation.replicateNoise.toFixed(3));
+		expect(() => buildReport({ ...inputs, pilotPlan: {} as never })).toThrow(/inputs\.pilotPlan/);
+	});
+
 	it('says why a result is missing when told', () => {
 		const model = buildReport({ ...minimalInputs(demoPlan()), unavailable: { layout: 'the design does not fit its plates' } });
 		expect(textOf(model, 'layout')).toContain('Why: the design does not fit its plates');

@@ -40,6 +40,7 @@ export function buildReport(inputs: ReportInputs): ReportModel {
 	check(!!inputs.seeds && typeof inputs.seeds === 'object', 'inputs.seeds', 'an object of named seeds', inputs.seeds);
 	for (const [k, v] of Object.entries(inputs.seeds)) check(Number.isSafeInteger(v) && v >= 0, `inputs.seeds.${k}`, 'an integer ≥ 0', v);
 	if (inputs.maxPlateMaps !== undefined) check(Number.isInteger(inputs.maxPlateMaps) && inputs.maxPlateMaps >= 0, 'inputs.maxPlateMaps', 'an integer ≥ 0', inputs.maxPlateMaps);
+	if (inputs.pilotPlan) check(Array.isArray(inputs.pilotPlan.factors), 'inputs.pilotPlan', 'a plan', inputs.pilotPlan);
 	(inputs.revisions ?? []).forEach((r, i) => {
 		check(Number.isInteger(r?.number), `inputs.revisions[${i}].number`, 'an integer', r?.number);
 		check(!!r?.plan && Array.isArray(r.plan.factors), `inputs.revisions[${i}].plan`, 'a plan', r?.plan);

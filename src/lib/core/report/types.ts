@@ -49,7 +49,9 @@ export interface ReportRevision {
  * - `plan`: the plan as it is now (the working copy); `check`: `checkPlan(plan)`.
  * - `simulation`: a simulation of the adopted or recommended design (or of the default design).
  * - `sizing`: `sizePlan(plan, …)`; `layout`: `layoutDesign(plan, design, …)` of the report's design.
- * - `pilot`: pilot estimates; `revisions`: saved revisions (any order; sorted by number).
+ * - `pilot`: pilot estimates; `pilotPlan` [plan]: the plan the pilot was analysed against (its
+ *   assumptions are set beside the estimates — pass it when `plan` already carries the pilot's values).
+ * - `revisions`: saved revisions (any order; sorted by number).
  * - `generatedAt`: ISO 8601 date-time of the report; `appVersion`: the app's version (package.json).
  * - `seeds`: the seed of each random result, by name (e.g. `{ simulation: 1, sizing: 1, layout: 1 }`).
  * - `planText` [serializePlan(plan)]: the plan file text whose SHA-256 the report prints.
@@ -66,6 +68,7 @@ export interface ReportInputs {
 	sizing?: SizeResult | null;
 	layout?: Layout | null;
 	pilot?: PilotFindings | null;
+	pilotPlan?: Plan | null;
 	revisions?: ReportRevision[];
 	generatedAt: string;
 	appVersion: string;

@@ -67,42 +67,6 @@ export function inputsSection(ctx: ReportContext): ReportSection {
 		}
 	});
 
-	blocks.push({ kind: 'heading', text: 'Reagents' });
-	blocks.push({
-		kind: 'table',
-		table: {
-			caption: `Reagent catalogue (${plan.reagents.length}); effects in factor SD units, cost in ${b.currency}`,
-			columns: [{ label: 'Reagent' }, { label: 'Id' }, { label: 'What it does' }, { label: 'Uncertainty', align: 'right' }, { label: 'Efficacy', align: 'right' }, { label: 'Cost/well', align: 'right' }, { label: 'Stock (wells)', align: 'right' }],
-			rows: plan.reagents.map((r) => [
-				r.name,
-				{ text: r.id, mono: true },
-				reagentEffectWords(ctx, r),
-				r.effectCv ? `±${formatPercent(r.effectCv)}` : '—',
-				formatPercent(r.efficacy),
-				formatNumber(r.costPerWell, 2),
-				r.maxWells === undefined ? 'no limit' : String(r.maxWells)
-			])
-		}
-	});
-
-	if (plan.contexts.length) {
-		blocks.push({ kind: 'heading', text: 'Contexts' });
-		blocks.push({
-			kind: 'table',
-			table: {
-				caption: 'Contexts: changed factor means (default 0) and variances (default 1)',
-				columns: [{ label: 'Context' }, { label: 'Id' }, { label: 'Applied to' }, { label: 'Means' }, { label: 'Variances' }],
-				rows: plan.contexts.map((c) => [
-					c.name,
-					{ text: c.id, mono: true },
-					c.level === 'plate' ? 'whole plates' : 'single wells',
-					Object.entries(c.mean).map(([f, v]) => `${ctx.factorName(f)} ${formatNumber(v, 2)}`).join('; ') || '—',
-					Object.entries(c.variance).map(([f, v]) => `${ctx.factorName(f)} ${formatNumber(v, 2)}`).join('; ') || '—'
-				])
-			}
-		});
-	}
-
 	blocks.push({ kind: 'heading', text: 'Measurement, budget and goal' });
 	blocks.push({
 		kind: 'facts',
@@ -127,5 +91,41 @@ export function inputsSection(ctx: ReportContext): ReportSection {
 			}
 		]
 	});
+	if (plan.contexts.length) {
+		blocks.push({ kind: 'heading', text: 'Contexts' });
+		blocks.push({
+			kind: 'table',
+			table: {
+				caption: 'Contexts: changed factor means (default 0) and variances (default 1)',
+				columns: [{ label: 'Context' }, { label: 'Id' }, { label: 'Applied to' }, { label: 'Means' }, { label: 'Variances' }],
+				rows: plan.contexts.map((c) => [
+					c.name,
+					{ text: c.id, mono: true },
+					c.level === 'plate' ? 'whole plates' : 'single wells',
+					Object.entries(c.mean).map(([f, v]) => `${ctx.factorName(f)} ${formatNumber(v, 2)}`).join('; ') || '—',
+					Object.entries(c.variance).map(([f, v]) => `${ctx.factorName(f)} ${formatNumber(v, 2)}`).join('; ') || '—'
+				])
+			}
+		});
+	}
+
+	blocks.push({ kind: 'heading', text: 'Reagents' });
+	blocks.push({
+		kind: 'table',
+		table: {
+			caption: `Reagent catalogue (${plan.reagents.length}); effects in factor SD units, cost in ${b.currency}`,
+			columns: [{ label: 'Reagent' }, { label: 'Id' }, { label: 'What it does' }, { label: 'Uncertainty', align: 'right' }, { label: 'Efficacy', align: 'right' }, { label: 'Cost/well', align: 'right' }, { label: 'Stock (wells)', align: 'right' }],
+			rows: plan.reagents.map((r) => [
+				r.name,
+				{ text: r.id, mono: true },
+				reagentEffectWords(ctx, r),
+				r.effectCv ? `±${formatPercent(r.effectCv)}` : '—',
+				formatPercent(r.efficacy),
+				formatNumber(r.costPerWell, 2),
+				r.maxWells === undefined ? 'no limit' : String(r.maxWells)
+			])
+		}
+	});
+
 	return { id: 'inputs', title: SECTION_TITLES.inputs, hasResults: true, blocks };
 }

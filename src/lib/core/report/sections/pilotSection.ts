@@ -10,8 +10,8 @@ import { SECTION_TITLES, emptySection, type ReportContext } from './context';
  */
 export function zPrimeWords(z: number): { text: string; tone: Tone } {
 	if (z >= 0.5) return { text: 'excellent assay (Z′ ≥ 0.5)', tone: 'good' };
-	if (z > 0) return { text: 'marginal assay (0 < Z′ < 0.5); screening usually wants Z′ > 0.5', tone: 'warn' };
-	return { text: 'the control bands touch or overlap (Z′ ≤ 0): screening is essentially impossible', tone: 'bad' };
+	if (z > 0) return { text: 'marginal (0 < Z′ < 0.5; screening usually wants > 0.5)', tone: 'warn' };
+	return { text: 'control bands overlap (Z′ ≤ 0)', tone: 'bad' };
 }
 
 /** Ratio of a pilot estimate to the plan's assumption, as a tone: within ±25 % good, within a factor 2 warn, else bad (common practice for a pilot check). */
@@ -31,8 +31,9 @@ export function pilotSection(ctx: ReportContext): ReportSection {
 			'no pilot data have been analysed for this plan, so its noise, plate effect and effect sizes are still assumptions.',
 			'Run a small pilot, then import its CSV in the notebook or run `identiplate report PLAN --pilot DATA.csv` (`identiplate pilot PLAN DATA.csv` re-plans with its estimates).'
 		);
-	const { plan } = ctx;
+	const plan = ctx.inputs.pilotPlan ?? ctx.plan;
 	const o = plan.observation;
+	const planColumn = ctx.inputs.pilotPlan ? 'Plan before the pilot' : 'Plan';
 	const blocks: ReportBlock[] = [];
 	blocks.push({
 		kind: 'paragraph',
@@ -43,16 +44,17 @@ export function pilotSection(ctx: ReportContext): ReportSection {
 		kind: 'table',
 		table: {
 			caption: 'Plan assumptions against pilot estimates (plan units)',
-			columns: [{ label: 'Quantity' }, { label: 'Plan', align: 'right' }, { label: 'Pilot', align: 'right' }],
+			columns: [{ label: 'Quantity' }, { label: planColumn, align: 'right' }, { label: 'Pilot', align: 'right' }],
 			rows: [
 				['Replicate noise (SD, factor units)', formatNumber(o.replicateNoise, 3), { text: formatNumber(p.replicateNoise, 3), tone: ratioTone(p.replicateNoise, o.replicateNoise) }],
 				['Measurement noise (SD, feature units)', formatNumber(o.measurementNoise, 3), { text: formatNumber(p.measurementNoise, 3), tone: ratioTone(p.measurementNoise, o.measurementNoise) }],
 				['Plate effect (SD, feature units)', formatNumber(o.plateEffect, 3), { text: p.plateEffect === null ? 'one plate: not estimable' : formatNumber(p.plateEffect, 3), tone: ratioTone(p.plateEffect, o.plateEffect) }],
-				['Independent effect directions (signal dimension)', `${plan.factors.length} factors`, { text: `${dim} (${p.signal.rule === 'permutation' ? 'label-permutation null' : 'noise edge'}; ${p.signal.dimensionByEdge} above the noise edge)`, tone: dim >= plan.factors.length ? 'good' : 'warn' }],
-				['Z′ of the controls', '—', p.zPrime === null ? 'no positive and negative controls (≥ 2 each)' : { text: `${formatNumber(p.zPrime, 2)} — ${zPrimeWords(p.zPrime).text}`, tone: zPrimeWords(p.zPrime).tone }]
+				['Independent effect directions (signal dimension)', `${plan.factors.length} factors`, { text: `${dim} (${p.signal.rule === 'permutation' ? 'permutation test' : 'noise edge'}; ${p.signal.dimensionByEdge} by the noise edge)`, tone: dim >= plan.factors.length ? 'good' : 'warn' }],
+				['Z′ of the controls', '—', p.zPrime === null ? 'needs ≥ 2 positive and negative controls' : { text: `${formatNumber(p.zPrime, 2)} — ${zPrimeWords(p.zPrime).text}`, tone: zPrimeWords(p.zPrime).tone }]
 			]
 		}
 	});
+	blocks.push({ kind: 'paragraph', text: `Z′ method: ${p.zPrimeMethod}` });
 	if (p.reagents.length)
 		blocks.push({
 			kind: 'table',
@@ -71,6 +73,5 @@ export function pilotSection(ctx: ReportContext): ReportSection {
 		});
 	if (p.notes.length) blocks.push({ kind: 'callout', tone: 'note', title: 'Findings', items: p.notes });
 	if (p.warnings.length) blocks.push({ kind: 'callout', tone: 'warning', title: 'What makes these estimates less certain', items: p.warnings });
-	blocks.push({ kind: 'paragraph', text: `Z′ method: ${p.zPrimeMethod}` });
 	return { id: 'pilot', title: SECTION_TITLES.pilot, hasResults: true, blocks };
 }
