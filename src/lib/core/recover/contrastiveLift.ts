@@ -9,7 +9,7 @@ import type { Rng } from '../simulate/rng';
  * log-odds are linear in the latents (the idea behind segment-contrastive learning, Hyvärinen
  * & Morioka 2016), so a linear step on the logits can undo a mild nonlinearity.
  * Training: full-batch gradient descent with Nesterov momentum on the L2-penalised
- * cross-entropy, step 1/L with L = ½·max‖feature row‖² + l2 (a bound on the Hessian).
+ * cross-entropy, step 1/L with L = ½·λmax(ΦᵀΦ/n) + l2 (a bound on the Hessian; Φ = feature rows).
  * Everything in the result is plain data; `applyLift` maps one profile to its K logits.
  */
 export interface Lift {
@@ -34,11 +34,11 @@ export interface ContrastiveLiftOptions {
 	rng: Rng;
 	/** Random Fourier features D (default 64). */
 	features?: number;
-	/** L2 penalty (default 1e-3). */
+	/** L2 penalty (default 1e-2). */
 	l2?: number;
-	/** Gradient steps (default 300). */
+	/** Gradient steps (default 200). */
 	maxIter?: number;
-	/** Stop when the largest gradient entry is below this (default 1e-5). */
+	/** Stop when the largest gradient entry is below this (default 1e-3). */
 	tol?: number;
 }
 
@@ -47,9 +47,9 @@ export function contrastiveLift(x: Float64Array, labels: Int32Array, n: number, 
 	if (classes < 2) throw new RangeError(`contrastiveLift: need at least 2 classes, got ${classes}`);
 	for (let s = 0; s < n; s++) if (labels[s] < 0 || labels[s] >= classes) throw new RangeError(`contrastiveLift: label ${labels[s]} of sample ${s} is outside [0, ${classes})`);
 	const D = opts.features ?? 64;
-	const l2 = opts.l2 ?? 1e-3;
-	const maxIter = opts.maxIter ?? 300;
-	const tol = opts.tol ?? 1e-5;
+	const l2 = opts.l2 ?? 1e-2;
+	const maxIter = opts.maxIter ?? 200;
+	const tol = opts.tol ?? 1e-3;
 	const mean = new Float64Array(p);
 	const scale = new Float64Array(p);
 	for (let s = 0; s < n; s++) for (let i = 0; i < p; i++) mean[i] += x[s * p + i];
@@ -76,7 +76,10 @@ export function contrastiveLift(x: Float64Array, labels: Int32Array, n: number, 
 		for (let t = 0; t < q; t++) r2 += phi[s * q + t] ** 2;
 		maxRow = Math.max(maxRow, r2);
 	}
-	const L = 0.5 * maxRow + l2;
+	// Lipschitz bound of the gradient: the softmax Hessian is ≤ ½·(ΦᵀΦ/n) ⊗ I (its per-sample
+	// factor diag(p) − ppᵀ has eigenvalues ≤ ½), so L = ½·λmax(ΦᵀΦ/n) + l2; λmax by power iteration
+	// (capped by the cruder ½·max‖φ_i‖² bound, which is always valid).
+	const L = Math.min(0.5 * maxRow, 0.5 * 1.02 * largestEigen(phi, n, q, opts.rng)) + l2;
 	const step = 1 / L;
 	const W = lift.weights;
 	const V = new Float64Array(classes * q); // look-ahead point
@@ -111,16 +114,17 @@ export function contrastiveLift(x: Float64Array, labels: Int32Array, n: number, 
 			grad[i] = grad[i] / n + l2 * V[i];
 			gmax = Math.max(gmax, Math.abs(grad[i]));
 		}
+		if (gmax < tol) {
+			W.set(V);
+			lift.converged = true;
+			break;
+		}
 		Wprev.set(W);
 		for (let i = 0; i < W.length; i++) W[i] = V[i] - step * grad[i];
 		const tNext = (1 + Math.sqrt(1 + 4 * tk * tk)) / 2;
 		const mom = (tk - 1) / tNext;
 		for (let i = 0; i < W.length; i++) V[i] = W[i] + mom * (W[i] - Wprev[i]);
 		tk = tNext;
-		if (gmax < tol) {
-			lift.converged = true;
-			break;
-		}
 	}
 	lift.iterations = Math.min(it, maxIter);
 	let correct = 0;
@@ -162,4 +166,32 @@ export function applyLift(lift: Lift, x: ArrayLike<number>, off: number, out: Fl
 	mean /= lift.classes;
 	for (let c = 0; c < lift.classes; c++) out[c] -= mean;
 	return out;
+}
+
+/** Largest eigenvalue of ΦᵀΦ/n (Φ row-major n × q) by 30 power iterations from a random start. */
+function largestEigen(phi: Float64Array, n: number, q: number, rng: Rng): number {
+	let v = new Float64Array(q);
+	for (let t = 0; t < q; t++) v[t] = rng.normal();
+	const u = new Float64Array(n);
+	let lambda = 0;
+	for (let it = 0; it < 30; it++) {
+		let norm = 0;
+		for (let t = 0; t < q; t++) norm += v[t] * v[t];
+		norm = Math.sqrt(norm) || 1;
+		for (let t = 0; t < q; t++) v[t] /= norm;
+		for (let s = 0; s < n; s++) {
+			let x = 0;
+			for (let t = 0; t < q; t++) x += phi[s * q + t] * v[t];
+			u[s] = x;
+		}
+		const w = new Float64Array(q);
+		for (let s = 0; s < n; s++) {
+			const us = u[s] / n;
+			for (let t = 0; t < q; t++) w[t] += phi[s * q + t] * us;
+		}
+		lambda = 0;
+		for (let t = 0; t < q; t++) lambda += w[t] * v[t];
+		v = w;
+	}
+	return lambda;
 }
