@@ -117,4 +117,68 @@ describe('sizing section', () => {
 		expect(app.errors).toEqual([]);
 		await page.close();
 	});
+
+	it('says plainly when the budget is short: the best design it buys and the budget the goal needs', { timeout: 600_000 }, async () => {
+		const page = await app.newPage('/');
+		await createFromTemplate(page, 'demo');
+		await waitVerdicts(page);
+		await page.getByTestId('budget-total').fill('1200');
+		await waitSaved(page);
+		await page.getByTestId('size-run').click();
+		await page.getByTestId('size-result').waitFor({ timeout: 400_000 });
+
+		const plan = parsePlan(readFileSync('templates/demo.json', 'utf8'));
+		plan.budget.total = 1200;
+		const direct = sizePlanSync(plan, { seed: 1 });
+		expect(direct.feasible).toBe(false);
+		expect(direct.budgetNeeded).not.toBeNull();
+		const d = direct.design!;
+		const name = (rid: string) => plan.reagents.find((r) => r.id === rid)!.name;
+
+		expect(await text(page, 'size-verdict')).toBe(`Not feasible within the budget. ${direct.reason}`);
+		expect(await text(page, 'size-budget-needed')).toMatch(new RegExp(`^The goal needs a budget of ${eur(direct.budgetNeeded!).replace(/[.]/g, '\\.')} \\(the cheapest design found reaching it`));
+		expect(await text(page, 'size-budget-needed')).toContain('the budget is 1,200 EUR');
+		expect(await page.getByTestId('size-design').locator('h3').textContent()).toBe('Best design the budget buys');
+		expect(await text(page, 'size-design-reagents')).toBe(`${d.reagents.length} reagents: ${d.reagents.map(name).join(', ')}`);
+		expect(await text(page, 'size-design-replicates')).toBe(`${d.replicates} wells per reagent and context`);
+		expect(d.cost).toBeLessThanOrEqual(1200);
+		expect(await text(page, 'size-cost-total')).toBe(`${eur(d.cost)} of 1,200 EUR`);
+		expect(app.errors).toEqual([]);
+		await page.close();
+	});
+
+	it('says why no design can reach the goal when a factor cannot be separated', { timeout: 600_000 }, async () => {
+		// The demo without its two unknown-target reagents, plus a factor no reagent targets: on the
+		// targeted route no choice of reagents separates the others from it (per-factor rank condition).
+		const plan = parsePlan(readFileSync('templates/demo.json', 'utf8'));
+		plan.title = 'Demo with an untargeted factor';
+		plan.reagents = plan.reagents.filter((r) => r.targets !== null);
+		plan.factors.push({ id: 'mot', name: 'Motility', shape: 'laplace' });
+		const page = await app.newPage('/');
+		await page.getByTestId('plan-list').waitFor();
+		await page.getByTestId('import-file').setInputFiles({ name: 'untargeted.plan.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(plan)) });
+		await page.locator('.plan-card.highlight h2 a').click();
+		await page.getByTestId('notebook-title').filter({ hasText: 'Demo with an untargeted factor' }).waitFor();
+		await waitVerdicts(page);
+		await page.getByTestId('size-run').click();
+		await page.getByTestId('size-result').waitFor({ timeout: 400_000 });
+
+		const direct = sizePlanSync(plan, { seed: 1 });
+		expect(direct.feasible).toBe(false);
+		expect(direct.budgetNeeded).toBeNull();
+		// Every reagent avoids Motility, so Motility itself passes the rank condition; each other
+		// factor has no reagent-free direction left and is recoverable only together with Motility.
+		expect(direct.unreachable.length).toBeGreaterThan(0);
+		expect(direct.unreachable.every((u) => u.block.includes('mot'))).toBe(true);
+		expect(await text(page, 'size-verdict')).toBe(`No design can reach the goal. ${direct.reason}`);
+		expect(await page.getByTestId('size-budget-needed').count()).toBe(0);
+		const lines = (await page.getByTestId('size-unreachable').locator('li').allTextContents()).map((l) => l.replace(/\s+/g, ' ').trim());
+		expect(lines).toHaveLength(direct.unreachable.length);
+		direct.unreachable.forEach((u, i) => {
+			expect(lines[i]).toMatch(new RegExp(`^${plan.factors.find((f) => f.id === u.id)!.name} \\(only together with [^)]*Motility[^)]*\\): `));
+			expect(lines[i]).toContain(u.reason);
+		});
+		expect(app.errors).toEqual([]);
+		await page.close();
+	});
 });
