@@ -5,11 +5,11 @@ import { groupRoots } from '../../src/lib/core/pilot';
 import { rngFor } from '../../src/lib/core/simulate/rng';
 
 describe('groupRoots (one-way MANOVA roots)', () => {
-	it('equal the eigenvalues of (W/ν)⁻¹(H/(G − 1)) computed with mathjs (reference library)', () => {
-		const N = 24;
-		const q = 4;
-		const G = 5;
-		const rng = rngFor(12);
+	it.each([
+		[24, 4, 5], // more groups than dimensions: the q × q path
+		[30, 6, 3] // fewer groups than dimensions: the G × G path
+	])('equal the eigenvalues of (W/ν)⁻¹(H/(G − 1)) computed with mathjs (reference library), N = %i, q = %i, G = %i', (N, q, G) => {
+		const rng = rngFor(12, q);
 		const labels = Array.from({ length: N }, (_, i) => i % G);
 		const z = new Float64Array(N * q);
 		for (let i = 0; i < N; i++) for (let j = 0; j < q; j++) z[i * q + j] = rng.normal() + (j === labels[i] % q ? 1.5 : 0);

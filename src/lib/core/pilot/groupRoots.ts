@@ -8,8 +8,9 @@ import { cholesky, symEigen } from '../linalg';
  * `z` is row-major N × q and must be centred (column means 0), `total` its scatter ZᵀZ
  * (q × q; it does not change when labels are permuted). `labels[i]` in [0, G) is the group of
  * row i. H = Σ_g s_g s_gᵀ / n_g with s_g the group sums; W = ZᵀZ − H. The non-zero roots
- * equal the eigenvalues of the G × G matrix M W⁻¹ Mᵀ · ν/(G − 1), M's rows s_g/√n_g, which is
- * how they are computed (G is small). Returns the roots descending (length min(q, G − 1)) and
+ * equal the eigenvalues of the G × G matrix M W⁻¹ Mᵀ · ν/(G − 1), M's rows s_g/√n_g, or of the
+ * q × q matrix L⁻¹MᵀML⁻ᵀ (W = LLᵀ), whichever is smaller; that is how they are computed.
+ * Returns the roots descending (length min(q, G − 1)) and
  * whether W was numerically positive definite.
  */
 export function groupRoots(z: Float64Array, n: number, q: number, total: Float64Array, labels: Int32Array | number[], groups: number): { roots: Float64Array; positiveDefinite: boolean } {
@@ -50,19 +51,32 @@ export function groupRoots(z: Float64Array, n: number, q: number, total: Float64
 			b[i * g + a] = s / l[i * q + i];
 		}
 	}
-	const gram = new Float64Array(g * g);
-	for (let a = 0; a < g; a++) {
-		for (let c = 0; c <= a; c++) {
-			let s = 0;
-			for (let i = 0; i < q; i++) s += b[i * g + a] * b[i * g + c];
-			gram[a * g + c] = s;
-			gram[c * g + a] = s;
+	// BᵀB (G × G) and BBᵀ = L⁻¹HL⁻ᵀ (q × q) share their non-zero eigenvalues: decompose the smaller.
+	const size = Math.min(g, q);
+	const gram = new Float64Array(size * size);
+	if (g <= q) {
+		for (let a = 0; a < g; a++) {
+			for (let c = 0; c <= a; c++) {
+				let s = 0;
+				for (let i = 0; i < q; i++) s += b[i * g + a] * b[i * g + c];
+				gram[a * g + c] = s;
+				gram[c * g + a] = s;
+			}
+		}
+	} else {
+		for (let i = 0; i < q; i++) {
+			for (let k = 0; k <= i; k++) {
+				let s = 0;
+				for (let a = 0; a < g; a++) s += b[i * g + a] * b[k * g + a];
+				gram[i * q + k] = s;
+				gram[k * q + i] = s;
+			}
 		}
 	}
-	const eig = symEigen(gram, g);
+	const eig = symEigen(gram, size);
 	const nu = n - g;
 	const count = Math.max(0, Math.min(q, g - 1));
 	const roots = new Float64Array(count);
-	for (let k = 0; k < count; k++) roots[k] = Math.max(0, eig.values[g - 1 - k]) * (nu / (g - 1));
+	for (let k = 0; k < count; k++) roots[k] = Math.max(0, eig.values[size - 1 - k]) * (nu / (g - 1));
 	return { roots, positiveDefinite: ch.positiveDefinite };
 }
