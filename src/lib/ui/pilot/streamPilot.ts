@@ -45,7 +45,8 @@ export function streamPilot(plan: Plan, input: Blob | string, options: StreamPil
 			settled = true;
 			reject(err);
 		};
-		const config: Papa.ParseLocalConfig<string[], Blob> & Papa.ParseConfig<string[]> = {
+		// papaparse streams a Blob like a File (its types only name File).
+		const config: Papa.ParseLocalConfig<string[], File> & Papa.ParseConfig<string[]> = {
 			delimiter: ',',
 			header: false,
 			skipEmptyLines: false,
@@ -77,6 +78,6 @@ export function streamPilot(plan: Plan, input: Blob | string, options: StreamPil
 			}
 		};
 		if (typeof input === 'string') Papa.parse(input, config as unknown as Papa.ParseConfig<string[]>);
-		else Papa.parse(input, config);
+		else Papa.parse(input as File, config);
 	});
 }
