@@ -16,6 +16,7 @@ import RevisionsSection from '../sections/RevisionsSection.svelte';
 import SimulationSection from '../sections/SimulationSection.svelte';
 import SizingSection from '../sections/SizingSection.svelte';
 import LayoutSection from '../sections/LayoutSection.svelte';
+import PilotSection from '../sections/PilotSection.svelte';
 
 export interface NotebookSection {
 	/** Anchor and key of the section's notes; letters, digits and "-" only. */
@@ -35,5 +36,6 @@ export const sections: NotebookSection[] = [
 	{ id: 'simulation', title: 'Simulation', component: SimulationSection },
 	{ id: 'sizing', title: 'Sizing', component: SizingSection },
 	{ id: 'layout', title: 'Plate layout', component: LayoutSection },
+	{ id: 'pilot', title: 'Pilot', component: PilotSection },
 	{ id: 'revisions', title: 'Revisions', component: RevisionsSection }
 ];
