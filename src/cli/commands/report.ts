@@ -25,9 +25,9 @@ export function appVersion(): string {
 
 /**
  * `identiplate report PLAN --out FILE.html [--seed N] [--reps N] [--pilot DATA.csv] [--threads N] [--json]`:
- * runs what the plan file does not carry — the checks, a sizing search when the plan fixes no
- * design, a simulation of the adopted or recommended design (of the default design when there is
- * none), the layout of that design, and the pilot analysis when a CSV is given — and writes one
+ * runs what the plan file does not carry — a sizing search when the plan fixes no design; the
+ * checks and a simulation of the adopted or recommended design (of the default design when there
+ * is none); the layout of that design; the pilot analysis when a CSV is given — and writes one
  * self-contained HTML report. A result that cannot be computed (e.g. the design does not fit its
  * plates) leaves its section saying why; bad pilot data exit 2. With --json it prints
  * `{ out, sections: [{id, title, hasResults}], bytes, sha256, planSha256, unavailable }`
@@ -59,7 +59,6 @@ export const command: Command = {
 
 		const unavailable: Partial<Record<ReportSectionId, string>> = {};
 		const seeds: Record<string, number> = {};
-		const check = checkPlan(plan);
 
 		let sizing: SizeResult | null = null;
 		if (!plan.design) {
@@ -77,6 +76,8 @@ export const command: Command = {
 		}
 		const chosen = reportDesign(plan, sizing);
 		if (!chosen && sizing) unavailable.design = 'the sizing found no design that fits the budget';
+		// The verdicts are those of the design the report presents (else of the default design).
+		const check = checkPlan(plan, chosen?.design);
 
 		let simulation: SimulationSummary | null = null;
 		const simDesign = chosen?.design ?? effectiveDesign(plan);

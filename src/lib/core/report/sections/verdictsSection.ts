@@ -1,6 +1,6 @@
 import type { CheckStatus, Verdict } from '../../identify/types';
 import type { ReportBlock, ReportSection, Tone } from '../types';
-import { SECTION_TITLES, joinWords, type ReportContext } from './context';
+import { SECTION_TITLES, designRole, joinWords, type ReportContext } from './context';
 
 const STATUS: Record<CheckStatus, { text: string; tone: Tone }> = {
 	pass: { text: 'pass', tone: 'good' },
@@ -24,7 +24,7 @@ export function verdictsSection(ctx: ReportContext): ReportSection {
 	blocks.push({
 		kind: 'paragraph',
 		text:
-			`Checked exactly for the design with ${d.reagents.length} reagent${d.reagents.length === 1 ? '' : 's'}, ${d.replicates} replicate wells each` +
+			`Checked exactly for ${designRole(ctx, d)}: ${d.reagents.length} reagent${d.reagents.length === 1 ? '' : 's'}, ${d.replicates} replicate wells each` +
 			`${d.contexts.length ? ` in ${d.contexts.length} contexts` : ''} and ${d.controlsPerPlate} controls per plate, on the ${check.route} route` +
 			`${ctx.plan.goal.route === 'auto' ? ' (chosen automatically: it recovers the most factors individually)' : ''}. ` +
 			`${counts.individual} of ${check.factors.length} factors can be recovered individually` +
