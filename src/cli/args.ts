@@ -13,7 +13,7 @@ export interface ParsedArgs {
 }
 
 /** Flags that take a value; every other `--flag` is boolean. */
-const VALUE_FLAGS = new Set(['seed', 'reps', 'csv', 'out', 'threads', 'svg', 'estimator', 'pilot']);
+const VALUE_FLAGS = new Set(['seed', 'reps', 'csv', 'out', 'threads', 'svg', 'estimator', 'pilot', 'kind', 'zprime-feature', 'scaling']);
 
 export function parseArgs(argv: string[]): ParsedArgs {
 	const positional: string[] = [];
