@@ -1,8 +1,8 @@
 /**
  * The report in a real browser: opened from a file:// URL in Chromium (playwright-core, as
  * STACK.md describes; the app harness serves the built app, which a report file does not need),
- * screenshotted and printed to PDF. Saves report-demo.png / report-demo.pdf under
- * /work/helpers/screens/ (or $REPORT_SCREENS_DIR) for a person to look at.
+ * screenshotted and printed to PDF. Saves report-demo.png / report-demo.pdf (see SCREENS) for a
+ * person to look at.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -20,7 +20,8 @@ import { demoPlan, fullInputs, HOSTILE, hostilePlan, pilotOf } from './fixtures'
 
 const CHROMIUM = existsSync('/usr/lib/chromium/chromium') ? '/usr/lib/chromium/chromium' : '/usr/bin/chromium';
 const ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
-const SCREENS = process.env.REPORT_SCREENS_DIR ?? '/work/helpers/screens';
+/** Where the pictures go: $REPORT_SCREENS_DIR, else /work/helpers/screens when /work/helpers exists, else the temp directory. */
+const SCREENS = process.env.REPORT_SCREENS_DIR ?? (existsSync('/work/helpers') ? '/work/helpers/screens' : join(tmpdir(), 'identiplate-screens'));
 
 let dir: string;
 let context: BrowserContext;
