@@ -12,6 +12,7 @@ import { simulate, type SimulationOptions } from '$core/simulate';
 import { directEvaluator, sizePlan, type SizeOptions } from '$core/size';
 import { layoutDesign } from '$core/layout/layoutDesign';
 import { layoutExport, type LayoutExportRequest } from '$lib/ui/layout/layoutExport';
+import { makeReport, type ReportRequest } from '$lib/ui/report/reportTask';
 import type { Handler, Progress } from './protocol';
 
 export const handlers = {
@@ -26,7 +27,9 @@ export const handlers = {
 	/** Plate layout of the plan's design (or the default one) with the given seed; LayoutError when it does not fit. */
 	layout: ({ plan, seed }: { plan: Plan; seed: number }) => layoutDesign(plan, plan.design, { seed }),
 	/** A downloadable file of a layout: CSV or SVG of one or all plates, or printable sheets. */
-	layoutExport: (request: LayoutExportRequest) => layoutExport(request)
+	layoutExport: (request: LayoutExportRequest) => layoutExport(request),
+	/** The collaborator report (checks, model and self-contained HTML) from the plan and its current results. */
+	report: (request: ReportRequest) => makeReport(request)
 } satisfies Record<string, Handler>;
 
 export type EngineHandlers = typeof handlers;

@@ -17,6 +17,7 @@ import SimulationSection from '../sections/SimulationSection.svelte';
 import SizingSection from '../sections/SizingSection.svelte';
 import LayoutSection from '../sections/LayoutSection.svelte';
 import PilotSection from '../sections/PilotSection.svelte';
+import ReportSection from '../sections/ReportSection.svelte';
 
 export interface NotebookSection {
 	/** Anchor and key of the section's notes; letters, digits and "-" only. */
@@ -37,5 +38,6 @@ export const sections: NotebookSection[] = [
 	{ id: 'sizing', title: 'Sizing', component: SizingSection },
 	{ id: 'layout', title: 'Plate layout', component: LayoutSection },
 	{ id: 'pilot', title: 'Pilot', component: PilotSection },
-	{ id: 'revisions', title: 'Revisions', component: RevisionsSection }
+	{ id: 'revisions', title: 'Revisions', component: RevisionsSection },
+	{ id: 'report', title: 'Report', component: ReportSection }
 ];
