@@ -53,19 +53,25 @@ export const referenceLines: Plugin<ChartType, ReferenceLinesOptions> = {
 				ctx.lineTo(area.right, px);
 			}
 			ctx.stroke();
-			if (line.label) {
+			const text = line.label;
+			if (text) {
 				ctx.setLineDash([]);
-				ctx.fillStyle = colour;
 				ctx.font = `600 11px ${chart.options.font?.family ?? 'sans-serif'}`;
 				ctx.textBaseline = 'bottom';
+				ctx.textAlign = 'left';
+				const width = ctx.measureText(text).width;
+				/** Writes the label with its left end at x and its baseline at y, on a light backing so bars do not hide it. */
+				const label = (x: number, y: number) => {
+					ctx.fillStyle = 'rgba(255, 255, 255, 0.85)';
+					ctx.fillRect(x - 2, y - 12, width + 4, 13);
+					ctx.fillStyle = colour;
+					ctx.fillText(text, x, y);
+				};
 				if (line.axis === 'x') {
-					const width = ctx.measureText(line.label).width;
 					const right = px + 4 + width > area.right;
-					ctx.textAlign = right ? 'right' : 'left';
-					ctx.fillText(line.label, right ? px - 4 : px + 4, area.top + 13);
+					label(right ? px - 4 - width : px + 4, area.top + 13);
 				} else {
-					ctx.textAlign = 'left';
-					ctx.fillText(line.label, area.left + 4, px - 3 < area.top + 12 ? px + 14 : px - 3);
+					label(area.left + 4, px - 3 < area.top + 12 ? px + 14 : px - 3);
 				}
 			}
 			ctx.restore();
