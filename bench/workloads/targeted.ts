@@ -64,7 +64,7 @@ export function targetedDesign(plan: Plan): Design {
 /** One replicate; `full` simulates every well and scores 2,000 population draws. */
 export function targetedReplicate(rep: number, full = false): number {
 	const plan = targetedPlan(rep);
-	const prep = prepareSimulation(plan, targetedDesign(plan), { seed: TARGETED_SEED, estimator: 'support', fastPath: !full, scoreDraws: full ? 2000 : 0 });
+	const prep = prepareSimulation(plan, targetedDesign(plan), { seed: TARGETED_SEED, estimator: 'support', fastPath: !full, scoreDraws: full ? 2000 : 0, blocks: null });
 	return runReplicate(prep, rep).mcc;
 }
 

@@ -63,22 +63,15 @@ export function drawEffectStatistics(prep: PreparedSimulation, world: World, rep
 	// Plate control means: factor part (P × d) and feature noise part (P × p).
 	const ctrlZ = new Float64Array(P * d);
 	const ctrlE = new Float64Array(P * p);
-	const ctrlCount = new Float64Array(P);
-	const byPlateCtx = new Map<number, number>(); // key q * (nCtx + 1) + (c + 1) → count
-	const nCtxKeys = prep.contextCatalogue.length + 1;
-	for (let t = 0; t < prep.controlPlate.length; t++) {
-		const key = prep.controlPlate[t] * nCtxKeys + prep.controlContext[t] + 1;
-		byPlateCtx.set(key, (byPlateCtx.get(key) ?? 0) + 1);
-		ctrlCount[prep.controlPlate[t]]++;
-	}
 	for (let q = 0; q < P; q++) {
-		const C = ctrlCount[q];
+		const groups = prep.plateControls[q];
+		let C = 0;
+		for (let g = 1; g < groups.length; g += 2) C += groups[g];
 		if (C === 0) continue;
 		const rng = rngFor(seed, rep, STREAM.CONTROL_STATS, q);
-		for (let ck = 0; ck < nCtxKeys; ck++) {
-			const nc = byPlateCtx.get(q * nCtxKeys + ck);
-			if (!nc) continue;
-			const c = ck - 1;
+		for (let g = 0; g < groups.length; g += 2) {
+			const c = groups[g];
+			const nc = groups[g + 1];
 			const m = meanOf(world, c, d);
 			const s = sdOf(world, c, d);
 			for (let j = 0; j < d; j++) {
@@ -95,26 +88,18 @@ export function drawEffectStatistics(prep: PreparedSimulation, world: World, rep
 	const zAcc = new Float64Array(d);
 	const eAcc = new Float64Array(p);
 	const noise = new Float64Array(p);
-	const plateWeight = new Float64Array(P);
 	const muResp = new Float64Array(d);
 	const vResp = new Float64Array(d);
-	const nByCtx = new Map<number, number>();
-	// Wells per (reagent, context) and per (reagent, plate).
-	const wellsOf: number[][] = Array.from({ length: R }, () => []);
-	for (let w = 0; w < prep.wellReagent.length; w++) wellsOf[prep.wellReagent[w]].push(w);
 	for (let k = 0; k < R; k++) {
-		const wells = wellsOf[k];
-		const N = wells.length;
+		const groups = prep.reagentGroups[k];
+		let N = 0;
+		for (let g = 1; g < groups.length; g += 2) N += groups[g];
 		zAcc.fill(0);
 		eAcc.fill(0);
-		plateWeight.fill(0);
-		nByCtx.clear();
-		for (const w of wells) {
-			plateWeight[prep.wellPlate[w]] += 1 / N;
-			nByCtx.set(prep.wellContext[w], (nByCtx.get(prep.wellContext[w]) ?? 0) + 1);
-		}
 		const rr = world.reagents[k];
-		for (const [c, n] of nByCtx) {
+		for (let g = 0; g < groups.length; g += 2) {
+			const c = groups[g];
+			const n = groups[g + 1];
 			const rng = rngFor(seed, rep, STREAM.GROUP_STATS, prep.reagentCatalogue[k], contextKey(c < 0 ? -1 : prep.contextCatalogue[c]));
 			let K = 0;
 			if (rr.efficacy >= 1) K = n;
@@ -145,9 +130,10 @@ export function drawEffectStatistics(prep: PreparedSimulation, world: World, rep
 			rng.fillNormal(noise, 0, p, (wgt * sw) / Math.sqrt(n));
 			for (let i = 0; i < p; i++) eAcc[i] += noise[i];
 		}
-		for (let q = 0; q < P; q++) {
-			const wq = plateWeight[q];
-			if (wq === 0) continue;
+		const plates = prep.reagentPlates[k];
+		for (let t = 0; t < plates.length; t += 2) {
+			const q = plates[t];
+			const wq = plates[t + 1];
 			for (let j = 0; j < d; j++) zAcc[j] -= wq * ctrlZ[q * d + j];
 			for (let i = 0; i < p; i++) eAcc[i] -= wq * ctrlE[q * p + i];
 		}

@@ -98,6 +98,13 @@ export function prepareSimulation(plan: Plan, design: Design, opts: SimulationOp
 			}
 		start += P;
 	}
+	const reagentGroups = design.reagents.map((_, k) => countPairs(wellReagent, wellContext, k));
+	const reagentPlates = design.reagents.map((_, k) => {
+		const pairs = countPairs(wellReagent, wellPlate, k);
+		const total = pairs.reduce((t, v, i) => (i % 2 ? t + v : t), 0);
+		return pairs.map((v, i) => (i % 2 ? v / total : v));
+	});
+	const plateControls = Array.from({ length: start }, (_, q) => countPairs(controlPlate, controlContext, q));
 	if (design.controlsPerPlate === 0 && (linearStep === 'support' || linearStep === 'sparse'))
 		warnings.push('no controls per plate: reagent effects are measured against the mean of all treatment wells on each plate, which biases them towards each other');
 	if (design.replicates < 2) warnings.push('fewer than 2 replicate wells per reagent and context: replicate noise cannot be checked in the experiment');
@@ -163,6 +170,9 @@ export function prepareSimulation(plan: Plan, design: Design, opts: SimulationOp
 		controlPlate,
 		controlContext,
 		controlIndex,
+		reagentGroups,
+		reagentPlates,
+		plateControls,
 		blocks,
 		linear,
 		fastPath: fastOpt === 'auto' ? fastPossible : fastOpt,
@@ -172,4 +182,17 @@ export function prepareSimulation(plan: Plan, design: Design, opts: SimulationOp
 		mixingCondition: opts.mixingCondition ?? null,
 		warnings
 	};
+}
+
+/** [value, count, value, count, …] of `values` over the entries whose `keys` equal `key`, in first-seen order. */
+function countPairs(keys: number[], values: number[], key: number): number[] {
+	const out: number[] = [];
+	for (let i = 0; i < keys.length; i++) {
+		if (keys[i] !== key) continue;
+		let j = 0;
+		while (j < out.length && out[j] !== values[i]) j += 2;
+		if (j < out.length) out[j + 1]++;
+		else out.push(values[i], 1);
+	}
+	return out;
 }

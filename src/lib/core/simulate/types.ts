@@ -73,6 +73,14 @@ export interface PreparedSimulation {
 	controlPlate: number[];
 	controlContext: number[];
 	controlIndex: number[];
+	/**
+	 * Fast-path summaries of the placement (derived from the well arrays above):
+	 * reagentGroups[k] = [context, wells, context, wells, …] of design reagent k;
+	 * reagentPlates[k] = [plate, share of k's wells, …]; plateControls[q] = [context, controls, …].
+	 */
+	reagentGroups: number[][];
+	reagentPlates: number[][];
+	plateControls: number[][];
 	/** Factor-index blocks for block R², or null. */
 	blocks: number[][] | null;
 	linear: boolean;
