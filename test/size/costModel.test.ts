@@ -25,22 +25,31 @@ describe('plate geometry (ANSI/SLAS 4-2004 formats)', () => {
 });
 
 describe('designCost: plates × plate cost + wells × reagent cost per well + fixed cost (worked by hand)', () => {
-	it('demo plan, 8 reagents × 25 replicates, 24 controls per 384-well plate with the edge excluded', () => {
+	it('demo plan, 8 reagents × 14 replicates, 24 controls per 384-well plate with the edge excluded', () => {
+		const plan = demo();
+		const reagents = ['kb101', 'kb102', 'kb202', 'kb302', 'kb401', 'kb502', 'kb602', 'kb703'];
+		const c = designCost(plan, { reagents, replicates: 14, controlsPerPlate: 24, contexts: [] });
+		// usable = 384 − 76 − 24 = 284 ≥ 112 treatment wells, 14 ≤ 14 usable rows → 1 plate
+		expect(c.usableWellsPerPlate).toBe(284);
+		expect(c.plates).toBe(1);
+		expect(c.treatmentWells).toBe(112);
+		expect(c.controlWells).toBe(24);
+		expect(c.wells).toBe(136);
+		// reagents: 14 × (3.2 + 1.1 + 2.4 + 3.5 + 2.8 + 1.6 + 2.2 + 1.5) = 14 × 18.3 = 256.2
+		expect(c.reagentCost).toBeCloseTo(256.2, 10);
+		expect(c.plateCost).toBe(140);
+		expect(c.fixedCost).toBe(800);
+		expect(c.total).toBeCloseTo(1196.2, 10);
+		expect(c.problem).toBeNull();
+	});
+	it('replicates beyond the usable rows need another plate: 25 replicates > 14 rows of a 384-well plate without its edge', () => {
 		const plan = demo();
 		const reagents = ['kb101', 'kb102', 'kb202', 'kb302', 'kb401', 'kb502', 'kb602', 'kb703'];
 		const c = designCost(plan, { reagents, replicates: 25, controlsPerPlate: 24, contexts: [] });
-		// usable = 384 − 76 − 24 = 284 ≥ 200 treatment wells → 1 plate
-		expect(c.usableWellsPerPlate).toBe(284);
-		expect(c.plates).toBe(1);
-		expect(c.treatmentWells).toBe(200);
-		expect(c.controlWells).toBe(24);
-		expect(c.wells).toBe(224);
-		// reagents: 25 × (3.2 + 1.1 + 2.4 + 3.5 + 2.8 + 1.6 + 2.2 + 1.5) = 25 × 18.3 = 457.5
-		expect(c.reagentCost).toBeCloseTo(457.5, 10);
-		expect(c.plateCost).toBe(140);
-		expect(c.fixedCost).toBe(800);
-		expect(c.total).toBeCloseTo(1397.5, 10);
-		expect(c.problem).toBeNull();
+		// 200 treatment wells fit 284 usable wells, but 25 replicates on distinct rows need ceil(25 / 14) = 2 plates
+		expect(c.plates).toBe(2);
+		expect(c.controlWells).toBe(48);
+		expect(c.total).toBeCloseTo(25 * 18.3 + 2 * 140 + 800, 10);
 	});
 	it('wells beyond one plate need another: 20 reagents × 15 replicates = 300 > 284', () => {
 		const plan = demo();

@@ -18,6 +18,16 @@ export function usableWellsPerPlate(format: PlateFormat, excludeEdgeWells: boole
 	return format - (excludeEdgeWells ? edgeWellCount(format) : 0) - controlsPerPlate;
 }
 
+/**
+ * The most replicate wells of one (reagent, context) group that one plate can hold when they
+ * must sit on distinct rows and distinct columns: min(usable rows, usable columns).
+ */
+export function maxReplicatesPerPlate(format: PlateFormat, excludeEdgeWells: boolean): number {
+	const { rows, columns } = PLATE_GEOMETRY[format];
+	const trim = excludeEdgeWells ? 2 : 0;
+	return Math.min(rows - trim, columns - trim);
+}
+
 export interface PlateGroup {
 	/** Context id for a plate-level context; null for the shared plates (baseline and well-level contexts). */
 	context: string | null;
@@ -48,6 +58,8 @@ export interface DesignCost {
  * Cost of a design (DESIGN.md "Sizing"): plates × plate cost + wells × reagent cost per well
  * + fixed cost. Each (reagent, context) gets `replicates` wells. Plate-level contexts get plates
  * of their own; baseline and well-level contexts share plates. Controls cost no reagent.
+ * A group needs at least ceil(replicates / maxReplicatesPerPlate) plates, since replicates of one
+ * (reagent, context) on the same plate go on distinct rows and columns.
  * A design that fixes `plates` gets at least that many (more when its wells do not fit).
  */
 export function designCost(plan: Plan, design: Design): DesignCost {
@@ -67,7 +79,11 @@ export function designCost(plan: Plan, design: Design): DesignCost {
 	const groups: PlateGroup[] = [];
 	const plateLevel = contexts.filter((c) => c.level === 'plate');
 	const sharedContexts = contexts.length === 0 ? 1 : contexts.length - plateLevel.length;
-	const fit = (wells: number) => (wells === 0 ? 0 : usable > 0 ? Math.ceil(wells / usable) : Infinity);
+	// A (reagent, context) group's replicates on one plate sit on distinct rows and columns
+	// (layout rule), so one plate holds at most min(usable rows, usable columns) of them.
+	const perPlateCap = maxReplicatesPerPlate(budget.plateFormat, budget.excludeEdgeWells);
+	const minPlates = design.replicates > 0 ? Math.ceil(design.replicates / perPlateCap) : 0;
+	const fit = (wells: number) => (wells === 0 ? 0 : usable > 0 ? Math.max(minPlates, Math.ceil(wells / usable)) : Infinity);
 	if (sharedContexts > 0) groups.push({ context: null, treatmentWells: wellsPerContext * sharedContexts, plates: Math.max(1, fit(wellsPerContext * sharedContexts)) });
 	for (const c of plateLevel) groups.push({ context: c.id, treatmentWells: wellsPerContext, plates: Math.max(1, fit(wellsPerContext)) });
 	let plates = groups.reduce((s, g) => s + g.plates, 0);
