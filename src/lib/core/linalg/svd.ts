@@ -61,7 +61,10 @@ export function svd(a: Float64Array, m: number, n: number): Svd {
 				for (let i = 0; i < m; i++) t += a[i * n + j] * u[i * r + k];
 				t /= s;
 				v[j * r + k] = t;
-				if (Math.abs(t) > bestAbs + 1e-12) (bestAbs = Math.abs(t)), (bestSign = t < 0 ? -1 : 1);
+				if (Math.abs(t) > bestAbs + 1e-12) {
+					bestAbs = Math.abs(t);
+					bestSign = t < 0 ? -1 : 1;
+				}
 			}
 			if (bestSign < 0) {
 				for (let j = 0; j < n; j++) v[j * r + k] = -v[j * r + k];

@@ -44,7 +44,11 @@ export function symEigen(a: Float64Array, n: number): SymEigen {
 	for (let i = 0; i < n - 1; i++) {
 		let k = i;
 		let p = d[i];
-		for (let j = i + 1; j < n; j++) if (d[j] < p) (k = j), (p = d[j]);
+		for (let j = i + 1; j < n; j++)
+			if (d[j] < p) {
+				k = j;
+				p = d[j];
+			}
 		if (k !== i) {
 			d[k] = d[i];
 			d[i] = p;
@@ -66,7 +70,10 @@ function fixSigns(V: Float64Array, n: number) {
 		let bestAbs = -1;
 		for (let r = 0; r < n; r++) {
 			const v = Math.abs(V[r * n + c]);
-			if (v > bestAbs + 1e-12) (bestAbs = v), (best = r);
+			if (v > bestAbs + 1e-12) {
+				bestAbs = v;
+				best = r;
+			}
 		}
 		if (V[best * n + c] < 0) for (let r = 0; r < n; r++) V[r * n + c] = -V[r * n + c];
 	}
