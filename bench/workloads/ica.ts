@@ -26,14 +26,16 @@ export function icaReplicate(rep: number): { mcc: number; converged: boolean; it
 	const z = new Float64Array(D);
 	const x = new Float64Array(N * P);
 	const a = mixing.a;
+	const at = new Float64Array(D * P); // Aᵀ, so each factor adds one contiguous column of A
+	for (let i = 0; i < P; i++) for (let j = 0; j < D; j++) at[j * P + i] = a[i * D + j];
 	rng.fillNormal(x, 0, N * P, NOISE);
 	for (let s = 0; s < N; s++) {
 		for (let j = 0; j < D; j++) z[j] = drawFactor('laplace', rng);
 		const row = s * P;
-		for (let i = 0; i < P; i++) {
-			let v = x[row + i];
-			for (let j = 0; j < D; j++) v += a[i * D + j] * z[j];
-			x[row + i] = v;
+		for (let j = 0; j < D; j++) {
+			const zj = z[j];
+			const aj = j * P;
+			for (let i = 0; i < P; i++) x[row + i] += zj * at[aj + i];
 		}
 	}
 	const u = fastIca(x, N, P, { components: D, rng: rngFor(ICA_SEED, rep, 3), tol: 1e-4, maxIter: 200 });
