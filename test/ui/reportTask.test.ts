@@ -57,6 +57,7 @@ describe('reportRequest', () => {
 			pilot: 'the stored pilot analysis (2031-05-06 08:30 UTC) was computed before the plan’s inputs last changed, so it is left out; run it again in the notebook’s Pilot section.'
 		});
 		expect(r.generatedAt).toBe('2031-05-06T09:00:00.000Z');
+		expect(r.commandLine).toBe('npm run plan -- report demo.plan.json --out demo-report.html --seed 4');
 		expect(r.command).toBe(
 			'npm run plan -- report demo.plan.json --out demo-report.html --seed 4 (seeds are not stored in the plan file: export the plan from the notebook and run this in the project folder to recompute every result)'
 		);

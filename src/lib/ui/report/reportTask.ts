@@ -51,7 +51,11 @@ export interface ReportRequest {
 	appVersion: string;
 	seeds: Record<string, number>;
 	planFileName: string;
-	/** The command line that recomputes the report from the exported plan file, with a note on seeds. */
+	/** The command that recomputes the report from the exported plan file. */
+	commandLine: string;
+	/** What the seeds mean for recomputing (seeds are not in the plan file). */
+	seedNote: string;
+	/** `commandLine (seedNote)`: printed in the report's reproducibility section. */
 	command: string;
 	unavailable: Partial<Record<ReportSectionId, string>>;
 }
@@ -120,11 +124,12 @@ export function reportRequest(args: {
 	const reps = simulation ? ` --reps ${simulation.reps}` : '';
 	const pilotFile = pilot ? String(results.pilot.settings.file ?? 'PILOT.csv') : null;
 	const pilotArg = pilotFile ? ` --pilot ${/^[\w.-]+$/.test(pilotFile) ? pilotFile : JSON.stringify(pilotFile)}` : '';
-	let command = `npm run plan -- report ${args.planFileName} --out ${args.reportFileName} --seed ${seed}${reps}${pilotArg}`;
-	command +=
+	const commandLine = `npm run plan -- report ${args.planFileName} --out ${args.reportFileName} --seed ${seed}${reps}${pilotArg}`;
+	const seedNote =
 		distinct.length > 1
-			? ` (seeds are not stored in the plan file; this notebook used ${Object.entries(seeds).map(([k, v]) => `${k} ${v}`).join(', ')}, and the command line uses one seed for all, so only the results with seed ${seed} are reproduced exactly)`
-			: ' (seeds are not stored in the plan file: export the plan from the notebook and run this in the project folder to recompute every result)';
+			? `seeds are not stored in the plan file; this notebook used ${Object.entries(seeds).map(([k, v]) => `${k} ${v}`).join(', ')}, and the command line uses one seed for all, so only the results with seed ${seed} are reproduced exactly`
+			: 'seeds are not stored in the plan file: export the plan from the notebook and run this in the project folder to recompute every result';
+	const command = `${commandLine} (${seedNote})`;
 
 	return {
 		plan,
@@ -137,6 +142,8 @@ export function reportRequest(args: {
 		appVersion: args.appVersion,
 		seeds,
 		planFileName: args.planFileName,
+		commandLine,
+		seedNote,
 		command,
 		unavailable
 	};
