@@ -203,7 +203,7 @@ export function* sizeSearch(plan: Plan, opts: SizeOptions = {}): SizeSearch {
 			}
 	if (sets.length > 0 && configs.length === 0) warnings.push('No candidate design fits: stock limits allow fewer than 2 replicates, or controls and excluded edge wells fill the plates.');
 
-	const simOptions: SimulationOptions = { ...(opts.simulation ?? {}), seed, estimator: opts.estimator ?? 'auto', route };
+	const simOptions: SimulationOptions = { blocks: null, ...(opts.simulation ?? {}), seed, estimator: opts.estimator ?? 'auto', route };
 
 	function record(design: Design): DesignRecord {
 		const key = JSON.stringify([design.reagents, design.replicates, design.controlsPerPlate, design.contexts, design.cellsPerWell ?? null]);
