@@ -76,6 +76,29 @@ describe('reportRequest', () => {
 	});
 });
 
+describe('reportRequest and the design behind a layout', () => {
+	// A sizing result that recommends a design (only the fields reportRequest reads matter here).
+	const sizing = { feasible: true, design: { reagents: ['kb101'], replicates: 6, controlsPerPlate: 16, contexts: [], plates: 1, wells: 22, cost: 900 } };
+
+	it('leaves out a default-design layout when sizing recommends another design', () => {
+		const r = reportRequest({ ...base, plan, results: { layout: stored('layout', layout, 4, plan), size: stored('size', sizing, 3, plan) } });
+		expect(r.layout).toBeNull();
+		expect(r.sizing).toBe(sizing);
+		expect(r.seeds).toEqual({ sizing: 3 });
+		expect(reportInputStates(plan, { layout: stored('layout', layout, 4, plan), size: stored('size', sizing, 3, plan) }).find((x) => x.kind === 'layout')!.state).toBe('other-design');
+		expect(r.unavailable.layout).toMatch(/^the stored layout is of the default design \(every reagent and context, 4 replicates\), not of the design sizing recommends/);
+	});
+
+	it('keeps the layout of an adopted design', () => {
+		const adopted = structuredClone(plan);
+		adopted.design = { reagents: plan.reagents.map((x) => x.id), replicates: 4, controlsPerPlate: 16, contexts: [] };
+		const own = layoutDesign(adopted, adopted.design, { seed: 4, effort: 0 });
+		const r = reportRequest({ ...base, plan: adopted, results: { layout: stored('layout', own, 4, adopted), size: stored('size', sizing, 3, adopted) } });
+		expect(r.layout).toBe(own);
+		expect(r.unavailable).toEqual({});
+	});
+});
+
 describe('makeReport', () => {
 	const results = { layout: stored('layout', layout, 4, plan), pilot: stored('pilot', pilot, 2, plan, { file: 'demo-pilot.csv' }) };
 	const revisions = [{ number: 1, label: 'Before pilot', createdAt: Date.UTC(2031, 4, 1), plan: other }];

@@ -11,6 +11,7 @@ import { checkPlan } from '$core/identify/checkPlan';
 import type { Layout } from '$core/layout/types';
 import type { PilotEstimates } from '$core/pilot/types';
 import { planInputHash } from '$core/plan/hashPlan';
+import { DEFAULT_REPLICATES } from '$core/plan/planHelpers';
 import type { Plan } from '$core/plan/types';
 import { buildReport } from '$core/report/buildReport';
 import { renderReportHtml } from '$core/report/renderReportHtml';
@@ -66,7 +67,8 @@ export interface ReportInputState {
 	section: ReportSectionId;
 	what: string;
 	where: string;
-	state: 'included' | 'stale' | 'missing';
+	/** `other-design`: a layout of the default design while sizing recommends another one (left out). */
+	state: 'included' | 'stale' | 'missing' | 'other-design';
 	seed: number | null;
 	createdAt: number | null;
 }
@@ -74,9 +76,15 @@ export interface ReportInputState {
 /** The state of every result kind the report uses, for the current plan. */
 export function reportInputStates(plan: Plan, results: Record<string, ResultLike>): ReportInputState[] {
 	const hash = planInputHash(plan);
+	const current = (kind: string) => !!results[kind] && results[kind].inputHash === hash;
+	// The Layout section lays out the adopted design or, without one, the default design; when
+	// sizing recommends a design the report stands for that one, so a default-design layout would
+	// show plates of another design.
+	const sizedDesign = current('size') && !!(results.size.summary as SizeResult | null)?.design;
 	return REPORT_RESULT_KINDS.map(({ kind, section, what, where }) => {
 		const r = results[kind];
-		const state = !r ? 'missing' : r.inputHash === hash ? 'included' : 'stale';
+		let state: ReportInputState['state'] = !r ? 'missing' : current(kind) ? 'included' : 'stale';
+		if (kind === 'layout' && state === 'included' && plan.design === null && sizedDesign) state = 'other-design';
 		return { kind, section, what, where, state, seed: r?.seed ?? null, createdAt: r?.createdAt ?? null };
 	});
 }
@@ -108,6 +116,10 @@ export function reportRequest(args: {
 		const s = states.find((x) => x.kind === kind)!;
 		if (s.state === 'stale') {
 			unavailable[s.section] = `the stored ${s.what} (${utc(s.createdAt!)}) was computed before the plan’s inputs last changed, so it is left out; run it again in the notebook’s ${s.where} section.`;
+			return null;
+		}
+		if (s.state === 'other-design') {
+			unavailable[s.section] = `the stored layout is of the default design (every reagent and context, ${DEFAULT_REPLICATES} replicates), not of the design sizing recommends; adopt that design in the Sizing section and lay it out again.`;
 			return null;
 		}
 		if (s.state === 'missing') return null;
