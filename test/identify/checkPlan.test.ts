@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { checkPlan, type CheckResult } from '../../src/lib/core/identify';
 import { parsePlan } from '../../src/lib/core/plan';
-import { makePlan } from './planFixture';
+import { makePlan, type ContextSpec } from './planFixture';
 
 const check = (r: CheckResult, id: string) => {
 	const c = r.checks.find((x) => x.id === id);
@@ -296,7 +296,7 @@ describe('contexts route', () => {
 	});
 
 	it('nonlinear, means and variances (k = 2): n = 2 needs 5 contexts; 4 fail, 5 generic pass', () => {
-		const contexts = [
+		const contexts: ContextSpec[] = [
 			{ id: 'c0' },
 			{ id: 'c1', mean: { f1: 1 }, variance: { f1: 2 } },
 			{ id: 'c2', mean: { f2: -1 }, variance: { f2: 3 } },
