@@ -19,14 +19,20 @@ const N = 5000;
 const P = 30;
 const NOISE = 0.1;
 
+// Workspaces reused by every replicate (fully overwritten each time): a fresh 1.2 MB sample
+// matrix per replicate would mostly time the allocator and the garbage collector.
+const X = new Float64Array(N * P);
+const Z = new Float64Array(D);
+const AT = new Float64Array(D * P);
+
 /** One replicate: returns the MCC and the FastICA diagnostics. */
 export function icaReplicate(rep: number): { mcc: number; converged: boolean; iterations: number } {
 	const mixing = drawMixing(P, D, rngFor(ICA_SEED, rep, 1));
 	const rng = rngFor(ICA_SEED, rep, 2);
-	const z = new Float64Array(D);
-	const x = new Float64Array(N * P);
+	const z = Z;
+	const x = X;
 	const a = mixing.a;
-	const at = new Float64Array(D * P); // Aᵀ, so each factor adds one contiguous column of A
+	const at = AT; // Aᵀ, so each factor adds one contiguous column of A
 	for (let i = 0; i < P; i++) for (let j = 0; j < D; j++) at[j * P + i] = a[i * D + j];
 	rng.fillNormal(x, 0, N * P, NOISE);
 	for (let s = 0; s < N; s++) {

@@ -30,39 +30,22 @@ export function fastIca(x: Float64Array, n: number, p: number, opts: FastIcaOpti
 	const maxIter = opts.maxIter ?? 200;
 	if (!Number.isInteger(k) || k < 1 || k > p) throw new RangeError(`fastIca: components must be an integer in [1, ${p}], got ${k}`);
 	if (!(alpha >= 1 && alpha <= 2)) throw new RangeError(`fastIca: alpha must be in [1, 2], got ${alpha}`);
-	const wh = whiten(x, n, p, k);
-	const xw = wh.whitened; // n × k
+	// Whitened samples column by column (k columns of length n): each pass of the update below
+	// streams through contiguous columns, which V8 runs much faster than k-long inner loops.
+	const wh = whiten(x, n, p, k, 'columns');
+	const cols = wh.whitened;
 	let w: Float64Array = new Float64Array(k * k);
 	for (let i = 0; i < k * k; i++) w[i] = opts.rng.normal();
 	w = symmetricDecorrelate(w, k, k);
 	const acc = new Float64Array(k * k);
 	const gpSum = new Float64Array(k);
-	const y = new Float64Array(k);
+	const g = new Float64Array(n);
 	const w1 = new Float64Array(k * k);
 	let converged = false;
 	let iterations = 0;
 	for (let it = 1; it <= maxIter; it++) {
 		iterations = it;
-		acc.fill(0);
-		gpSum.fill(0);
-		for (let s = 0; s < n; s++) {
-			const row = s * k;
-			for (let a = 0; a < k; a++) {
-				let v = 0;
-				const wa = a * k;
-				for (let b = 0; b < k; b++) v += w[wa + b] * xw[row + b];
-				// tanh(αv) = 1 − 2/(e^{2αv} + 1), saturating safely for large |v|
-				const e2 = Math.exp(2 * alpha * v);
-				const g = e2 === Infinity ? 1 : 1 - 2 / (e2 + 1);
-				y[a] = g;
-				gpSum[a] += 1 - g * g;
-			}
-			for (let a = 0; a < k; a++) {
-				const g = y[a];
-				const aa = a * k;
-				for (let b = 0; b < k; b++) acc[aa + b] += g * xw[row + b];
-			}
-		}
+		for (let a = 0; a < k; a++) gpSum[a] = updateRow(cols, n, k, w, a, alpha, g, acc);
 		for (let a = 0; a < k; a++) {
 			const gp = (alpha * gpSum[a]) / n;
 			for (let b = 0; b < k; b++) w1[a * k + b] = acc[a * k + b] / n - gp * w[a * k + b];
@@ -90,4 +73,68 @@ export function fastIca(x: Float64Array, n: number, p: number, opts: FastIcaOpti
 	const warnings = [...wh.warnings];
 	if (!converged) warnings.push(`FastICA did not converge within ${maxIter} iterations (tolerance ${tol})`);
 	return { k, p, w: out, converged, iterations, warnings };
+}
+
+/**
+ * One row of the FastICA update on column-major whitened samples `cols` (k columns of length n):
+ * y = Σ_b w[a, b]·col_b, g = tanh(α·y) (into `g`), acc[a, b] = Σ_s g_s·col_b[s]; returns Σ_s (1 − g_s²).
+ * Columns are taken two at a time so each pass over the samples does twice the work per load.
+ */
+function updateRow(cols: Float64Array, n: number, k: number, w: Float64Array, a: number, alpha: number, g: Float64Array, acc: Float64Array): number {
+	const wa = a * k;
+	const two = 2 * alpha;
+	let b = 0;
+	if (k % 2 === 1) {
+		const w0 = w[wa];
+		for (let s = 0; s < n; s++) g[s] = w0 * cols[s];
+		b = 1;
+	} else g.fill(0, 0, n);
+	let gp = 0;
+	for (; b < k; b += 2) {
+		const w0 = w[wa + b];
+		const w1 = w[wa + b + 1];
+		const o0 = b * n;
+		const o1 = o0 + n;
+		if (b + 2 < k) {
+			for (let s = 0; s < n; s++) g[s] += w0 * cols[o0 + s] + w1 * cols[o1 + s];
+		} else {
+			// Last pair: finish y and apply tanh(αy) = 1 − 2/(e^{2αy} + 1), saturating safely.
+			for (let s = 0; s < n; s++) {
+				const e2 = Math.exp(two * (g[s] + w0 * cols[o0 + s] + w1 * cols[o1 + s]));
+				const t = e2 === Infinity ? 1 : 1 - 2 / (e2 + 1);
+				g[s] = t;
+				gp += 1 - t * t;
+			}
+		}
+	}
+	if (k === 1) {
+		// No pair was left for the tanh pass above.
+		for (let s = 0; s < n; s++) {
+			const e2 = Math.exp(two * g[s]);
+			const t = e2 === Infinity ? 1 : 1 - 2 / (e2 + 1);
+			g[s] = t;
+			gp += 1 - t * t;
+		}
+	}
+	b = 0;
+	for (; b + 1 < k; b += 2) {
+		const o0 = b * n;
+		const o1 = o0 + n;
+		let s0 = 0;
+		let s1 = 0;
+		for (let s = 0; s < n; s++) {
+			const t = g[s];
+			s0 += t * cols[o0 + s];
+			s1 += t * cols[o1 + s];
+		}
+		acc[wa + b] = s0;
+		acc[wa + b + 1] = s1;
+	}
+	if (b < k) {
+		const o0 = b * n;
+		let s0 = 0;
+		for (let s = 0; s < n; s++) s0 += g[s] * cols[o0 + s];
+		acc[wa + b] = s0;
+	}
+	return gp;
 }

@@ -3,7 +3,8 @@ import { symEigen } from '../linalg/symEigen';
 /**
  * PCA whitening of samples x (row-major n × p) to k components: centre the columns, take the
  * top-k eigenvectors E and eigenvalues λ of the covariance (divisor n), K = diag(λ^(−1/2))·Eᵀ.
- * Returns K (k × p), the means (p) and the whitened samples (row-major n × k, unit variance).
+ * Returns K (k × p), the means (p) and the whitened samples (unit variance): row-major n × k, or
+ * with `layout: 'columns'` column-major (component t's n values at t·n … t·n + n − 1).
  * Eigenvalues below 1e-12·λ_max are floored there (rank-deficient data; reported as a warning).
  */
 export interface Whitening {
@@ -12,17 +13,21 @@ export interface Whitening {
 	mean: Float64Array;
 	/** Row-major k × p. */
 	whitener: Float64Array;
-	/** Row-major n × k. */
+	/** Row-major n × k, or column-major when `layout` is 'columns'. */
 	whitened: Float64Array;
+	layout: 'rows' | 'columns';
 	eigenvalues: Float64Array;
 	warnings: string[];
 }
 
-export function whiten(x: Float64Array, n: number, p: number, k: number): Whitening {
+export function whiten(x: Float64Array, n: number, p: number, k: number, layout: 'rows' | 'columns' = 'rows'): Whitening {
 	if (n < 2) throw new RangeError(`whiten: need at least 2 samples, got ${n}`);
 	if (k < 1 || k > p) throw new RangeError(`whiten: components must be in [1, ${p}], got ${k}`);
 	const mean = new Float64Array(p);
-	for (let s = 0; s < n; s++) for (let i = 0; i < p; i++) mean[i] += x[s * p + i];
+	for (let s = 0; s < n; s++) {
+		const row = s * p;
+		for (let i = 0; i < p; i++) mean[i] += x[row + i];
+	}
 	for (let i = 0; i < p; i++) mean[i] /= n;
 	const cov = covarianceAbout(x, n, p, mean);
 	const eig = symEigen(cov, p);
@@ -43,16 +48,35 @@ export function whiten(x: Float64Array, n: number, p: number, k: number): Whiten
 	}
 	const whitened = new Float64Array(n * k);
 	const xc = new Float64Array(p);
+	const rowStride = layout === 'rows' ? k : 1;
+	const colStride = layout === 'rows' ? 1 : n;
 	for (let s = 0; s < n; s++) {
-		for (let i = 0; i < p; i++) xc[i] = x[s * p + i] - mean[i];
-		for (let t = 0; t < k; t++) {
-			let v = 0;
-			const wt = t * p;
-			for (let i = 0; i < p; i++) v += whitener[wt + i] * xc[i];
-			whitened[s * k + t] = v;
+		const row = s * p;
+		for (let i = 0; i < p; i++) xc[i] = x[row + i] - mean[i];
+		const base = s * rowStride;
+		// Two components per pass over the centred sample.
+		let t = 0;
+		for (; t + 1 < k; t += 2) {
+			const w0 = t * p;
+			const w1 = w0 + p;
+			let v0 = 0;
+			let v1 = 0;
+			for (let i = 0; i < p; i++) {
+				const c = xc[i];
+				v0 += whitener[w0 + i] * c;
+				v1 += whitener[w1 + i] * c;
+			}
+			whitened[base + t * colStride] = v0;
+			whitened[base + (t + 1) * colStride] = v1;
+		}
+		if (t < k) {
+			const w0 = t * p;
+			let v0 = 0;
+			for (let i = 0; i < p; i++) v0 += whitener[w0 + i] * xc[i];
+			whitened[base + t * colStride] = v0;
 		}
 	}
-	return { k, p, mean, whitener, whitened, eigenvalues, warnings };
+	return { k, p, mean, whitener, whitened, layout, eigenvalues, warnings };
 }
 
 /**
