@@ -31,7 +31,8 @@ export function drawFactor(shape: FactorShape, rng: Rng): number {
 /**
  * Fills `count` draws of one standardised factor into out[offset], out[offset + stride], …
  * (a column of a row-major sample matrix). Same distributions as drawFactor; Gaussian
- * columns use the ziggurat bulk generator.
+ * columns use the ziggurat bulk generator, Laplace ones bulk uniforms (the values drawFactor
+ * would use, in order).
  */
 export function fillFactor(shape: FactorShape, rng: Rng, out: Float64Array, offset: number, stride: number, count: number, scratch?: Float64Array): void {
 	if (shape === 'gaussian') {
@@ -41,8 +42,13 @@ export function fillFactor(shape: FactorShape, rng: Rng, out: Float64Array, offs
 		return;
 	}
 	if (shape === 'laplace') {
+		// Uniforms in bulk (the same values as count calls of rng.next()), then the inverse CDF;
+		// a uniform of exactly 0 (probability 2⁻³² per draw) is redrawn from the stream.
+		const buf = stride === 1 ? out : scratch && scratch.length >= count ? scratch : new Float64Array(count);
+		const b0 = stride === 1 ? offset : 0;
+		rng.fillUniform(buf, b0, count);
 		for (let t = 0; t < count; t++) {
-			let u = rng.next() - 0.5;
+			let u = buf[b0 + t] - 0.5;
 			while (u === -0.5) u = rng.next() - 0.5;
 			out[offset + t * stride] = u < 0 ? LAPLACE_B * Math.log(1 + 2 * u) : -LAPLACE_B * Math.log(1 - 2 * u);
 		}

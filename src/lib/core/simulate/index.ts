@@ -6,7 +6,7 @@ export { runReplicate } from './runReplicate';
 export { summarise } from './summarise';
 export { simulate } from './simulate';
 export { wilson } from '../score/wilson';
-export { drawFactor, excessKurtosis, BIMODAL_MU } from './factorShape';
+export { drawFactor, fillFactor, excessKurtosis, BIMODAL_MU } from './factorShape';
 export { drawMixing, applyMixing, type Mixing } from './mixing';
 export { realiseReagent, type RealisedReagent } from './realiseReagents';
 export { drawWorld, CLAMP_SPREAD, type World } from './world';

@@ -22,6 +22,11 @@ export interface Rng {
 	 * sequence from `normal()`.
 	 */
 	fillNormal(out: Float64Array, offset: number, count: number, scale?: number): void;
+	/**
+	 * Fills out[offset … offset+count) with uniforms in [0, 1): exactly the values that `count`
+	 * calls of `next()` would return, in the same order, without a call per value.
+	 */
+	fillUniform(out: Float64Array, offset: number, count: number): void;
 	/** Independent child stream. */
 	split(key: number): Rng;
 }
@@ -149,6 +154,32 @@ class Xoshiro128 implements Rng {
 		st[2] = c;
 		st[3] = d;
 		if (pending) for (let i = 0; i < pending.length; i += 2) out[pending[i]] = scale * this.zigguratSlow(pending[i + 1] >> 7, pending[i + 1] & 127);
+	}
+
+	fillUniform(out: Float64Array, offset: number, count: number): void {
+		const st = this.s;
+		let a = st[0];
+		let b = st[1];
+		let c = st[2];
+		let d = st[3];
+		const end = offset + count;
+		for (let t = offset; t < end; t++) {
+			// Inlined xoshiro128** step on local words (same sequence as nextI32).
+			const b5 = Math.imul(b, 5);
+			const u = Math.imul((b5 << 7) | (b5 >>> 25), 9);
+			const sh = b << 9;
+			c ^= a;
+			d ^= b;
+			b ^= c;
+			a ^= d;
+			c ^= sh;
+			d = (d << 11) | (d >>> 21);
+			out[t] = (u >>> 0) / 4294967296;
+		}
+		st[0] = a;
+		st[1] = b;
+		st[2] = c;
+		st[3] = d;
 	}
 
 	/** Ziggurat rejection step for draws outside a layer's rectangle (Marsaglia & Tsang 2000, nfix). */
