@@ -1,6 +1,7 @@
 import { symmetricDecorrelate } from '../linalg/orthogonal';
 import type { Rng } from '../simulate/rng';
 import type { Unmixing } from './types';
+import { tanhViaExp } from './tanhViaExp';
 import { whiten } from './whiten';
 
 /**
@@ -33,7 +34,7 @@ export function fastIca(x: Float64Array, n: number, p: number, opts: FastIcaOpti
 	// Whitened samples column by column (k columns of length n): each pass of the update below
 	// streams through contiguous columns, which V8 runs much faster than k-long inner loops.
 	const wh = whiten(x, n, p, k, 'columns');
-	const cols = wh.whitened;
+	const cols = Array.from({ length: k }, (_, b) => wh.whitened.subarray(b * n, b * n + n));
 	let w: Float64Array = new Float64Array(k * k);
 	for (let i = 0; i < k * k; i++) w[i] = opts.rng.normal();
 	w = symmetricDecorrelate(w, k, k);
@@ -76,32 +77,31 @@ export function fastIca(x: Float64Array, n: number, p: number, opts: FastIcaOpti
 }
 
 /**
- * One row of the FastICA update on column-major whitened samples `cols` (k columns of length n):
+ * One row of the FastICA update on whitened sample columns `cols` (k views of length n):
  * y = Σ_b w[a, b]·col_b, g = tanh(α·y) (into `g`), acc[a, b] = Σ_s g_s·col_b[s]; returns Σ_s (1 − g_s²).
  * Columns are taken two at a time so each pass over the samples does twice the work per load.
  */
-function updateRow(cols: Float64Array, n: number, k: number, w: Float64Array, a: number, alpha: number, g: Float64Array, acc: Float64Array): number {
+function updateRow(cols: Float64Array[], n: number, k: number, w: Float64Array, a: number, alpha: number, g: Float64Array, acc: Float64Array): number {
 	const wa = a * k;
-	const two = 2 * alpha;
 	let b = 0;
 	if (k % 2 === 1) {
 		const w0 = w[wa];
-		for (let s = 0; s < n; s++) g[s] = w0 * cols[s];
+		const c0 = cols[0];
+		for (let s = 0; s < n; s++) g[s] = w0 * c0[s];
 		b = 1;
 	} else g.fill(0, 0, n);
 	let gp = 0;
 	for (; b < k; b += 2) {
 		const w0 = w[wa + b];
 		const w1 = w[wa + b + 1];
-		const o0 = b * n;
-		const o1 = o0 + n;
+		const c0 = cols[b];
+		const c1 = cols[b + 1];
 		if (b + 2 < k) {
-			for (let s = 0; s < n; s++) g[s] += w0 * cols[o0 + s] + w1 * cols[o1 + s];
+			for (let s = 0; s < n; s++) g[s] += w0 * c0[s] + w1 * c1[s];
 		} else {
-			// Last pair: finish y and apply tanh(αy) = 1 − 2/(e^{2αy} + 1), saturating safely.
+			// Last pair: finish y and apply tanh(αy).
 			for (let s = 0; s < n; s++) {
-				const e2 = Math.exp(two * (g[s] + w0 * cols[o0 + s] + w1 * cols[o1 + s]));
-				const t = e2 === Infinity ? 1 : 1 - 2 / (e2 + 1);
+				const t = tanhViaExp(alpha * (g[s] + w0 * c0[s] + w1 * c1[s]));
 				g[s] = t;
 				gp += 1 - t * t;
 			}
@@ -110,30 +110,29 @@ function updateRow(cols: Float64Array, n: number, k: number, w: Float64Array, a:
 	if (k === 1) {
 		// No pair was left for the tanh pass above.
 		for (let s = 0; s < n; s++) {
-			const e2 = Math.exp(two * g[s]);
-			const t = e2 === Infinity ? 1 : 1 - 2 / (e2 + 1);
+			const t = tanhViaExp(alpha * g[s]);
 			g[s] = t;
 			gp += 1 - t * t;
 		}
 	}
 	b = 0;
 	for (; b + 1 < k; b += 2) {
-		const o0 = b * n;
-		const o1 = o0 + n;
+		const c0 = cols[b];
+		const c1 = cols[b + 1];
 		let s0 = 0;
 		let s1 = 0;
 		for (let s = 0; s < n; s++) {
 			const t = g[s];
-			s0 += t * cols[o0 + s];
-			s1 += t * cols[o1 + s];
+			s0 += t * c0[s];
+			s1 += t * c1[s];
 		}
 		acc[wa + b] = s0;
 		acc[wa + b + 1] = s1;
 	}
 	if (b < k) {
-		const o0 = b * n;
+		const c0 = cols[b];
 		let s0 = 0;
-		for (let s = 0; s < n; s++) s0 += g[s] * cols[o0 + s];
+		for (let s = 0; s < n; s++) s0 += g[s] * c0[s];
 		acc[wa + b] = s0;
 	}
 	return gp;
