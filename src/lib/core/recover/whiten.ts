@@ -47,74 +47,81 @@ export function whiten(x: Float64Array, n: number, p: number, k: number, layout:
 		for (let i = 0; i < p; i++) whitener[t * p + i] = eig.vectors[i * p + src] * sc;
 	}
 	const whitened = new Float64Array(n * k);
-	const xc = new Float64Array(p);
-	const rowStride = layout === 'rows' ? k : 1;
-	const colStride = layout === 'rows' ? 1 : n;
-	for (let s = 0; s < n; s++) {
-		const row = s * p;
-		for (let i = 0; i < p; i++) xc[i] = x[row + i] - mean[i];
-		const base = s * rowStride;
-		// Two components per pass over the centred sample.
-		let t = 0;
-		for (; t + 1 < k; t += 2) {
-			const w0 = t * p;
-			const w1 = w0 + p;
-			let v0 = 0;
-			let v1 = 0;
-			for (let i = 0; i < p; i++) {
-				const c = xc[i];
-				v0 += whitener[w0 + i] * c;
-				v1 += whitener[w1 + i] * c;
+	// Blocks of centred samples feature by feature; each component's values for the block are
+	// accumulated two features per pass, then stored in the requested layout.
+	const buf = new Float64Array(p * BLOCK);
+	const acc = new Float64Array(BLOCK);
+	for (let s0 = 0; s0 < n; s0 += BLOCK) {
+		const m = Math.min(BLOCK, n - s0);
+		centredBlock(x, p, mean, s0, m, buf);
+		for (let t = 0; t < k; t++) {
+			const wt = t * p;
+			acc.fill(0);
+			let i = 0;
+			for (; i + 1 < p; i += 2) {
+				const k0 = whitener[wt + i];
+				const k1 = whitener[wt + i + 1];
+				const o0 = i * BLOCK;
+				const o1 = o0 + BLOCK;
+				for (let u = 0; u < m; u++) acc[u] += k0 * buf[o0 + u] + k1 * buf[o1 + u];
 			}
-			whitened[base + t * colStride] = v0;
-			whitened[base + (t + 1) * colStride] = v1;
-		}
-		if (t < k) {
-			const w0 = t * p;
-			let v0 = 0;
-			for (let i = 0; i < p; i++) v0 += whitener[w0 + i] * xc[i];
-			whitened[base + t * colStride] = v0;
+			if (i < p) {
+				const k0 = whitener[wt + i];
+				const o0 = i * BLOCK;
+				for (let u = 0; u < m; u++) acc[u] += k0 * buf[o0 + u];
+			}
+			if (layout === 'columns') whitened.set(acc.subarray(0, m), t * n + s0);
+			else for (let u = 0; u < m; u++) whitened[(s0 + u) * k + t] = acc[u];
 		}
 	}
 	return { k, p, mean, whitener, whitened, layout, eigenvalues, warnings };
 }
 
+/** Samples per block in covarianceAbout and the whitening projection (a p × BLOCK buffer stays in L1). */
+const BLOCK = 64;
+
 /**
  * Covariance (divisor n) of row-major n × p samples about `mean`; row-major p × p.
- * Accumulates the lower triangle four samples at a time (fewer passes over the result).
+ * Works on blocks of BLOCK centred samples copied feature by feature into a small buffer, and
+ * accumulates the lower triangle in 2 × 2 tiles (four dot products share each pass).
  */
 export function covarianceAbout(x: Float64Array, n: number, p: number, mean: Float64Array): Float64Array {
 	const cov = new Float64Array(p * p);
-	const c0 = new Float64Array(p);
-	const c1 = new Float64Array(p);
-	const c2 = new Float64Array(p);
-	const c3 = new Float64Array(p);
-	let s = 0;
-	for (; s + 4 <= n; s += 4) {
-		const r0 = s * p;
-		for (let i = 0; i < p; i++) {
-			const m = mean[i];
-			c0[i] = x[r0 + i] - m;
-			c1[i] = x[r0 + p + i] - m;
-			c2[i] = x[r0 + 2 * p + i] - m;
-			c3[i] = x[r0 + 3 * p + i] - m;
-		}
-		for (let i = 0; i < p; i++) {
-			const a0 = c0[i];
-			const a1 = c1[i];
-			const a2 = c2[i];
-			const a3 = c3[i];
-			const ci = i * p;
-			for (let j = 0; j <= i; j++) cov[ci + j] += a0 * c0[j] + a1 * c1[j] + a2 * c2[j] + a3 * c3[j];
-		}
-	}
-	for (; s < n; s++) {
-		const row = s * p;
-		for (let i = 0; i < p; i++) c0[i] = x[row + i] - mean[i];
-		for (let i = 0; i < p; i++) {
-			const v = c0[i];
-			const ci = i * p;
-			for (let j = 0; j <= i; j++) cov[ci + j] += v * c0[j];
+	const buf = new Float64Array(p * BLOCK);
+	for (let s0 = 0; s0 < n; s0 += BLOCK) {
+		const m = Math.min(BLOCK, n - s0);
+		centredBlock(x, p, mean, s0, m, buf);
+		for (let i = 0; i < p; i += 2) {
+			const i1 = i + 1 < p ? i + 1 : i;
+			const oi = i * BLOCK;
+			const oi1 = i1 * BLOCK;
+			for (let j = 0; j <= i; j += 2) {
+				const j1 = j + 1 < p ? j + 1 : j;
+				const oj = j * BLOCK;
+				const oj1 = j1 * BLOCK;
+				let a00 = 0;
+				let a01 = 0;
+				let a10 = 0;
+				let a11 = 0;
+				for (let t = 0; t < m; t++) {
+					const u0 = buf[oi + t];
+					const u1 = buf[oi1 + t];
+					const v0 = buf[oj + t];
+					const v1 = buf[oj1 + t];
+					a00 += u0 * v0;
+					a01 += u0 * v1;
+					a10 += u1 * v0;
+					a11 += u1 * v1;
+				}
+				// Entries above the diagonal are overwritten from below at the end; with an odd p
+				// the last row and column repeat (i1 = i, j1 = j) and are added once.
+				cov[i * p + j] += a00;
+				if (j1 !== j) cov[i * p + j1] += a01;
+				if (i1 !== i) {
+					cov[i1 * p + j] += a10;
+					if (j1 !== j) cov[i1 * p + j1] += a11;
+				}
+			}
 		}
 	}
 	for (let i = 0; i < p; i++)
@@ -124,4 +131,12 @@ export function covarianceAbout(x: Float64Array, n: number, p: number, mean: Flo
 			cov[j * p + i] = v;
 		}
 	return cov;
+}
+
+/** Copies samples s0 … s0+m−1 of x (row-major n × p), centred, into buf feature by feature (p × BLOCK). */
+function centredBlock(x: Float64Array, p: number, mean: Float64Array, s0: number, m: number, buf: Float64Array) {
+	for (let t = 0; t < m; t++) {
+		const r = (s0 + t) * p;
+		for (let i = 0; i < p; i++) buf[i * BLOCK + t] = x[r + i] - mean[i];
+	}
 }
