@@ -48,7 +48,7 @@ export function whiten(x: Float64Array, n: number, p: number, k: number, layout:
 	}
 	const whitened = new Float64Array(n * k);
 	// Blocks of centred samples feature by feature; each component's values for the block are
-	// accumulated two features per pass, then stored in the requested layout.
+	// accumulated four features per pass, then stored in the requested layout.
 	const buf = new Float64Array(p * BLOCK);
 	const acc = new Float64Array(BLOCK);
 	for (let s0 = 0; s0 < n; s0 += BLOCK) {
@@ -58,6 +58,17 @@ export function whiten(x: Float64Array, n: number, p: number, k: number, layout:
 			const wt = t * p;
 			acc.fill(0);
 			let i = 0;
+			for (; i + 3 < p; i += 4) {
+				const k0 = whitener[wt + i];
+				const k1 = whitener[wt + i + 1];
+				const k2 = whitener[wt + i + 2];
+				const k3 = whitener[wt + i + 3];
+				const o0 = i * BLOCK;
+				const o1 = o0 + BLOCK;
+				const o2 = o1 + BLOCK;
+				const o3 = o2 + BLOCK;
+				for (let u = 0; u < m; u++) acc[u] += k0 * buf[o0 + u] + k1 * buf[o1 + u] + k2 * buf[o2 + u] + k3 * buf[o3 + u];
+			}
 			for (; i + 1 < p; i += 2) {
 				const k0 = whitener[wt + i];
 				const k1 = whitener[wt + i + 1];
