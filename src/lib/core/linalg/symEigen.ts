@@ -39,7 +39,10 @@ export function symEigen(a: Float64Array, n: number): SymEigen {
 	const e = new Float64Array(n);
 	if (n === 0) return { n, values: d, vectors: V, converged: true };
 	tridiagonalise(V, d, e, n);
+	// QL rotates pairs of eigenvector columns; on the transpose those are contiguous rows.
+	transposeInPlace(V, n);
 	const converged = diagonalise(V, d, e, n);
+	transposeInPlace(V, n);
 	// Sort ascending (selection sort: n is small), moving eigenvector columns along.
 	for (let i = 0; i < n - 1; i++) {
 		let k = i;
@@ -61,6 +64,15 @@ export function symEigen(a: Float64Array, n: number): SymEigen {
 	}
 	fixSigns(V, n);
 	return { n, values: d, vectors: V, converged };
+}
+
+function transposeInPlace(V: Float64Array, n: number) {
+	for (let i = 1; i < n; i++)
+		for (let j = 0; j < i; j++) {
+			const t = V[i * n + j];
+			V[i * n + j] = V[j * n + i];
+			V[j * n + i] = t;
+		}
 }
 
 /** Makes the largest-magnitude entry of every column positive. */
@@ -155,7 +167,7 @@ function tridiagonalise(V: Float64Array, d: Float64Array, e: Float64Array, n: nu
 	e[0] = 0;
 }
 
-/** Implicit QL with shifts (tql2) on the tridiagonal (d, e); rotations applied to V's columns. */
+/** Implicit QL with shifts (tql2) on the tridiagonal (d, e); rotations applied to the rows of Vᵀ (stored in V). */
 function diagonalise(V: Float64Array, d: Float64Array, e: Float64Array, n: number): boolean {
 	let converged = true;
 	for (let i = 1; i < n; i++) e[i - 1] = e[i];
@@ -203,11 +215,13 @@ function diagonalise(V: Float64Array, d: Float64Array, e: Float64Array, n: numbe
 					c = p / r;
 					p = c * d[i] - s * g;
 					d[i + 1] = h + s * (c * g + s * d[i]);
+					const r0 = i * n;
+					const r1 = r0 + n;
 					for (let k = 0; k < n; k++) {
-						const vk = k * n;
-						h = V[vk + i + 1];
-						V[vk + i + 1] = s * V[vk + i] + c * h;
-						V[vk + i] = c * V[vk + i] - s * h;
+						h = V[r1 + k];
+						const vk = V[r0 + k];
+						V[r1 + k] = s * vk + c * h;
+						V[r0 + k] = c * vk - s * h;
 					}
 				}
 				p = (-s * s2 * c3 * el1 * e[l]) / dl1;
