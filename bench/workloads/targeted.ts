@@ -17,7 +17,8 @@
  * numbers from WARMUP_FIRST on, so they never coincide with the timed ones) before the harness's
  * own warm-up replicate. The per-replicate kernels are short, so V8 only compiles them to
  * optimised code after a few hundred calls; without this pre-run the timed loop would mostly
- * measure the JIT's first tiers rather than the computation.
+ * measure the JIT's first tiers rather than the computation. setup() then pauses briefly so the
+ * background compiler can finish the jobs the warm-up queued (settleCompiler).
  */
 import type { Workload } from '../workload';
 import type { Design, Plan, Reagent } from '../../src/lib/core/plan/types';
@@ -76,14 +77,24 @@ export function targetedReplicate(rep: number, full = false): number {
 
 const full = process.env.IDENTIPLATE_BENCH_FULL === '1';
 
+/**
+ * V8 compiles hot functions on a background thread; on a busy machine the jobs queued by the
+ * warm-up can still be waiting when timing starts, and the timed loop then runs unoptimised
+ * code. A short idle pause lets them finish (no work of the workload happens in it).
+ */
+export function settleCompiler(ms = 100): Promise<void> {
+	return new Promise((resolve) => setTimeout(resolve, ms));
+}
+
 /** Untimed warm-up replicates run by setup(), numbered from WARMUP_FIRST. */
 export const WARMUP_REPS = 400;
 export const WARMUP_FIRST = 1_000_000;
 
 export const workload: Workload = {
 	reps: 200,
-	setup: () => {
+	setup: async () => {
 		for (let i = 0; i < WARMUP_REPS; i++) targetedReplicate(WARMUP_FIRST + i, full);
+		await settleCompiler();
 	},
 	run: (rep) => targetedReplicate(rep, full)
 };

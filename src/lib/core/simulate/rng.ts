@@ -31,32 +31,30 @@ export interface Rng {
 	split(key: number): Rng;
 }
 
-function splitmix32(state: number): () => number {
-	let s = state >>> 0;
-	return () => {
-		s = (s + 0x9e3779b9) >>> 0;
-		let z = s;
-		z = Math.imul(z ^ (z >>> 16), 0x85ebca6b) >>> 0;
-		z = Math.imul(z ^ (z >>> 13), 0xc2b2ae35) >>> 0;
-		return (z ^ (z >>> 16)) >>> 0;
-	};
+/** Output of splitmix32 for the state after `step` increments from `state` (its `step`-th draw). */
+function splitmix32At(state: number, step: number): number {
+	let z = (state + Math.imul(step, 0x9e3779b9)) >>> 0;
+	z = Math.imul(z ^ (z >>> 16), 0x85ebca6b) >>> 0;
+	z = Math.imul(z ^ (z >>> 13), 0xc2b2ae35) >>> 0;
+	return (z ^ (z >>> 16)) >>> 0;
 }
 
 /** Mixes a path of integers (any finite numbers; non-integers are truncated) into one 32-bit seed. */
 function hashPath(path: readonly number[]): number {
 	let h = 0x243f6a88;
-	for (const raw of path) {
-		const v = Math.trunc(raw);
-		const lo = v >>> 0;
-		const hi = Math.floor(v / 4294967296) >>> 0;
-		for (const w of [lo, hi]) {
-			h = Math.imul(h ^ w, 0x9e3779b1) >>> 0;
-			h = (h ^ (h >>> 15)) >>> 0;
-			h = Math.imul(h, 0x85ebca77) >>> 0;
-		}
+	for (let i = 0; i < path.length; i++) {
+		const v = Math.trunc(path[i]);
+		h = mixWord(h, v >>> 0);
+		h = mixWord(h, Math.floor(v / 4294967296) >>> 0);
 		h = (h ^ (h >>> 13)) >>> 0;
 	}
 	return h >>> 0;
+}
+
+function mixWord(h: number, w: number): number {
+	h = Math.imul(h ^ w, 0x9e3779b1) >>> 0;
+	h = (h ^ (h >>> 15)) >>> 0;
+	return Math.imul(h, 0x85ebca77) >>> 0;
 }
 
 class Xoshiro128 implements Rng {
@@ -68,12 +66,12 @@ class Xoshiro128 implements Rng {
 
 	constructor(path: readonly number[]) {
 		this.path = path;
-		const sm = splitmix32(hashPath(path));
+		const h = hashPath(path);
 		const s = this.s;
-		s[0] = sm();
-		s[1] = sm();
-		s[2] = sm();
-		s[3] = sm();
+		s[0] = splitmix32At(h, 1);
+		s[1] = splitmix32At(h, 2);
+		s[2] = splitmix32At(h, 3);
+		s[3] = splitmix32At(h, 4);
 		if ((s[0] | s[1] | s[2] | s[3]) === 0) s[0] = 1;
 	}
 
