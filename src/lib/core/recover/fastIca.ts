@@ -41,12 +41,15 @@ export function fastIca(x: Float64Array, n: number, p: number, opts: FastIcaOpti
 	const acc = new Float64Array(k * k);
 	const gpSum = new Float64Array(k);
 	const g = new Float64Array(n);
+	const g2 = new Float64Array(n);
 	const w1 = new Float64Array(k * k);
 	let converged = false;
 	let iterations = 0;
 	for (let it = 1; it <= maxIter; it++) {
 		iterations = it;
-		for (let a = 0; a < k; a++) gpSum[a] = updateRow(cols, n, k, w, a, alpha, g, acc);
+		let a = 0;
+		for (; a + 1 < k; a += 2) updatePair(cols, n, k, w, a, alpha, g, g2, acc, gpSum);
+		if (a < k) gpSum[a] = updateRow(cols, n, k, w, a, alpha, g, acc);
 		for (let a = 0; a < k; a++) {
 			const gp = (alpha * gpSum[a]) / n;
 			for (let b = 0; b < k; b++) w1[a * k + b] = acc[a * k + b] / n - gp * w[a * k + b];
@@ -136,4 +139,94 @@ function updateRow(cols: Float64Array[], n: number, k: number, w: Float64Array, 
 		acc[wa + b] = s0;
 	}
 	return gp;
+}
+
+/**
+ * Rows a and a + 1 of the update together (the same arithmetic as updateRow for each): every
+ * column value loaded serves both rows. k ≥ 2. Writes Σ_s (1 − g_s²) of each row to gpSum.
+ */
+function updatePair(cols: Float64Array[], n: number, k: number, w: Float64Array, a: number, alpha: number, ga: Float64Array, gb: Float64Array, acc: Float64Array, gpSum: Float64Array): void {
+	const wa = a * k;
+	const wb = wa + k;
+	let b = 0;
+	if (k % 2 === 1) {
+		const pa = w[wa];
+		const pb = w[wb];
+		const c0 = cols[0];
+		for (let s = 0; s < n; s++) {
+			const v = c0[s];
+			ga[s] = pa * v;
+			gb[s] = pb * v;
+		}
+		b = 1;
+	} else {
+		ga.fill(0, 0, n);
+		gb.fill(0, 0, n);
+	}
+	let gpa = 0;
+	let gpb = 0;
+	for (; b < k; b += 2) {
+		const pa0 = w[wa + b];
+		const pa1 = w[wa + b + 1];
+		const pb0 = w[wb + b];
+		const pb1 = w[wb + b + 1];
+		const c0 = cols[b];
+		const c1 = cols[b + 1];
+		if (b + 2 < k) {
+			for (let s = 0; s < n; s++) {
+				const v0 = c0[s];
+				const v1 = c1[s];
+				ga[s] += pa0 * v0 + pa1 * v1;
+				gb[s] += pb0 * v0 + pb1 * v1;
+			}
+		} else {
+			for (let s = 0; s < n; s++) {
+				const v0 = c0[s];
+				const v1 = c1[s];
+				const ta = tanhViaExp(alpha * (ga[s] + pa0 * v0 + pa1 * v1));
+				const tb = tanhViaExp(alpha * (gb[s] + pb0 * v0 + pb1 * v1));
+				ga[s] = ta;
+				gb[s] = tb;
+				gpa += 1 - ta * ta;
+				gpb += 1 - tb * tb;
+			}
+		}
+	}
+	gpSum[a] = gpa;
+	gpSum[a + 1] = gpb;
+	b = 0;
+	for (; b + 1 < k; b += 2) {
+		const c0 = cols[b];
+		const c1 = cols[b + 1];
+		let sa0 = 0;
+		let sa1 = 0;
+		let sb0 = 0;
+		let sb1 = 0;
+		for (let s = 0; s < n; s++) {
+			const v0 = c0[s];
+			const v1 = c1[s];
+			const ta = ga[s];
+			const tb = gb[s];
+			sa0 += ta * v0;
+			sa1 += ta * v1;
+			sb0 += tb * v0;
+			sb1 += tb * v1;
+		}
+		acc[wa + b] = sa0;
+		acc[wa + b + 1] = sa1;
+		acc[wb + b] = sb0;
+		acc[wb + b + 1] = sb1;
+	}
+	if (b < k) {
+		const c0 = cols[b];
+		let sa0 = 0;
+		let sb0 = 0;
+		for (let s = 0; s < n; s++) {
+			const v0 = c0[s];
+			sa0 += ga[s] * v0;
+			sb0 += gb[s] * v0;
+		}
+		acc[wa + b] = sa0;
+		acc[wb + b] = sb0;
+	}
 }
