@@ -3,16 +3,17 @@
  * port and drives Debian's Chromium through playwright-core with a fresh profile, so every
  * test file starts with an empty IndexedDB. Reused by every `*.e2e.test.ts`:
  *
- *   const app = await openApp();            // server + browser
- *   const page = await app.newPage('/');    // a tab at the given path, errors collected
- *   …
- *   await app.close();
+ *   const app = useApp();                   // server + browser, opened before and closed after the file's tests
+ *   const page = await app.newPage('/');    // (inside a test) a tab at the given path, errors collected
+ *
+ * `openApp()` opens one by hand; the caller then closes it with `app.close()`.
  */
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type { Server } from 'node:http';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, beforeAll } from 'vitest';
 import { createServer, listen } from '../../scripts/serve.mjs';
 
 /** Debian's Chromium; the wrapper script at /usr/bin/chromium also works but prints a shell warning. */
@@ -78,6 +79,53 @@ export async function openApp(options: OpenAppOptions = {}): Promise<App> {
 			rmSync(profile, { recursive: true, force: true });
 		}
 	};
+}
+
+/**
+ * Opens the app before the calling file's tests and closes it after them. The returned object
+ * stands for the open app; use it inside tests (before they run the app is not open yet).
+ */
+export function useApp(options: OpenAppOptions = {}): App {
+	let opened: App | undefined;
+	beforeAll(async () => {
+		opened = await openApp(options);
+	});
+	afterAll(async () => {
+		await opened?.close();
+	});
+	const current = (): App => {
+		if (!opened) throw new Error('the app is not open yet: use it inside a test');
+		return opened;
+	};
+	return {
+		get url() {
+			return current().url;
+		},
+		get context() {
+			return current().context;
+		},
+		get errors() {
+			return current().errors;
+		},
+		newPage: (pathname) => current().newPage(pathname),
+		close: () => current().close()
+	};
+}
+
+/** Clicks something that starts a download and returns the file's suggested name and its text. */
+export async function downloadFile(page: Page, click: () => Promise<void>): Promise<{ name: string; text: string }> {
+	const [file] = await Promise.all([page.waitForEvent('download'), click()]);
+	return { name: file.suggestedFilename(), text: readFileSync((await file.path())!, 'utf8') };
+}
+
+/** Text content of the element with `testid`, runs of white space collapsed (as the page shows it). */
+export async function textOf(page: Page, testid: string): Promise<string> {
+	return ((await page.getByTestId(testid).textContent()) ?? '').replace(/\s+/g, ' ').trim();
+}
+
+/** Rendered text (innerText: white space between table cells) of the first element with `testid`, white space collapsed. */
+export async function renderedText(page: Page, testid: string): Promise<string> {
+	return (await page.getByTestId(testid).first().innerText()).replace(/\s+/g, ' ').trim();
 }
 
 /** Waits until the notebook says everything is saved (autosave finished). */

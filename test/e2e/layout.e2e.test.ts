@@ -5,29 +5,11 @@
  * stored layout after a reload, see it marked stale after an edit, and see a stock problem
  * explained.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
-import type { Page } from 'playwright-core';
-import { createFromTemplate, openApp, waitSaved, type App } from './harness';
+import { createFromTemplate, downloadFile, textOf, useApp, waitSaved } from './harness';
 
-let app: App;
-beforeAll(async () => {
-	app = await openApp();
-});
-afterAll(async () => {
-	await app?.close();
-});
-
-async function download(page: Page, click: () => Promise<void>): Promise<{ name: string; text: string }> {
-	const [file] = await Promise.all([page.waitForEvent('download'), click()]);
-	return { name: file.suggestedFilename(), text: readFileSync((await file.path())!, 'utf8') };
-}
-
-/** Text content with runs of white space collapsed (as the page shows it). */
-async function textOf(page: Page, testid: string): Promise<string> {
-	return ((await page.getByTestId(testid).textContent()) ?? '').replace(/\s+/g, ' ').trim();
-}
+const app = useApp();
 
 /** ANSI/SLAS 4-2004: a 96-well plate has rows A–H and columns 1–12. */
 const ROWS_96 = ['A', 'B', 'C', 'D', 'E', 'F', 'G', 'H'];
@@ -85,7 +67,7 @@ describe('layout section', () => {
 		expect(await position.textContent()).toBe('Plate 1 of 2');
 
 		// The CSV of all plates.
-		const csv = await download(page, () => page.getByTestId('layout-csv-all').click());
+		const csv = await downloadFile(page, () => page.getByTestId('layout-csv-all').click());
 		expect(csv.name).toMatch(/-layout-seed7\.csv$/);
 		const lines = csv.text.split('\r\n');
 		expect(lines[0]).toBe('plate,well,row,column,role,reagent,context,replicate');
@@ -116,14 +98,14 @@ describe('layout section', () => {
 
 		// The CSV of plate 2 alone and the SVG of the shown plate.
 		await page.getByTestId('plate-next').click();
-		const one = await download(page, () => page.getByTestId('layout-csv-plate').click());
+		const one = await downloadFile(page, () => page.getByTestId('layout-csv-plate').click());
 		expect(one.name).toMatch(/-plate2\.csv$/);
 		expect(one.text.split('\r\n').length - 2).toBe(96);
 		expect(one.text.split('\r\n').slice(1, -1).every((l) => l.startsWith('2,'))).toBe(true);
-		const svg = await download(page, () => page.getByTestId('layout-svg-plate').click());
+		const svg = await downloadFile(page, () => page.getByTestId('layout-svg-plate').click());
 		expect(svg.text.startsWith('<svg xmlns="http://www.w3.org/2000/svg"')).toBe(true);
 		expect(svg.text).toContain('Plate 2 of 2');
-		const all = await download(page, () => page.getByTestId('layout-svg-all').click());
+		const all = await downloadFile(page, () => page.getByTestId('layout-svg-all').click());
 		expect(all.text.match(/<svg\b/g)!.length).toBe(3); // the outer drawing and one per plate
 
 		// Diagnostics are shown.

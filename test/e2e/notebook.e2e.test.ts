@@ -4,19 +4,13 @@
  * undo, duplicate, invalid imports and entries, one-click fixes, labels and keyboard use,
  * offline start.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import { parsePlan, serializePlan } from '../../src/lib/core/plan';
-import { createFromTemplate, openApp, waitSaved, waitVerdicts, type App } from './harness';
+import { createFromTemplate, downloadFile, useApp, waitSaved, waitVerdicts } from './harness';
 
-let app: App;
-beforeAll(async () => {
-	app = await openApp();
-});
-afterAll(async () => {
-	await app?.close();
-});
+const app = useApp();
 
 const verdictOf = (page: Page, factor: string) => page.getByTestId(`verdict-${factor}`);
 
@@ -24,11 +18,6 @@ const verdictOf = (page: Page, factor: string) => page.getByTestId(`verdict-${fa
 async function expectVerdict(page: Page, factor: string, text: string | RegExp) {
 	await verdictOf(page, factor).filter({ hasText: text }).waitFor({ timeout: 10_000 });
 	await waitVerdicts(page);
-}
-
-async function download(page: Page, click: () => Promise<void>): Promise<{ name: string; text: string }> {
-	const [file] = await Promise.all([page.waitForEvent('download'), click()]);
-	return { name: file.suggestedFilename(), text: readFileSync((await file.path())!, 'utf8') };
 }
 
 describe('plans list', () => {
@@ -139,7 +128,7 @@ describe('plan files and the plans list', () => {
 		await createFromTemplate(page, 'unknown-targets');
 		await page.getByTestId('plan-title').fill('Library triage, exported');
 		await waitSaved(page);
-		const first = await download(page, () => page.getByTestId('export-plan').click());
+		const first = await downloadFile(page, () => page.getByTestId('export-plan').click());
 		expect(first.name).toBe('library-triage-exported.plan.json');
 		// The file is a valid plan in canonical form.
 		expect(serializePlan(parsePlan(first.text))).toBe(first.text);
@@ -152,7 +141,7 @@ describe('plan files and the plans list', () => {
 		await page.locator('.plan-card').nth(before).waitFor();
 		const imported = page.locator('.plan-card.highlight');
 		const importedId = (await imported.getAttribute('data-testid'))!.replace(/^plan-/, '');
-		const second = await download(page, () => page.getByTestId(`export-${importedId}`).click());
+		const second = await downloadFile(page, () => page.getByTestId(`export-${importedId}`).click());
 		expect(second.text).toBe(first.text);
 		await page.close();
 	});

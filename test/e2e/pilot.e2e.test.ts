@@ -9,29 +9,21 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createWriteStream, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import type { Page } from 'playwright-core';
 import { parsePlan } from '../../src/lib/core/plan';
 import { analysePilot, parsePilotCsvText } from '../../src/lib/core/pilot';
-import { createFromTemplate, openApp, waitSaved, type App } from './harness';
+import { createFromTemplate, renderedText, useApp, waitSaved } from './harness';
 
-let app: App;
+const app = useApp();
 let dir: string;
-beforeAll(async () => {
-	app = await openApp();
+beforeAll(() => {
 	dir = mkdtempSync(path.join(tmpdir(), 'identiplate-pilot-e2e-'));
 });
-afterAll(async () => {
-	await app?.close();
+afterAll(() => {
 	if (dir) rmSync(dir, { recursive: true, force: true });
 });
 
 const demoPlan = parsePlan(readFileSync('templates/demo.json', 'utf8'));
 const demoCsv = readFileSync('static/demo-pilot.csv', 'utf8');
-
-async function textOf(page: Page, testid: string): Promise<string> {
-	// innerText: as rendered, with white space between table cells.
-	return (await page.getByTestId(testid).first().innerText()).replace(/\s+/g, ' ').trim();
-}
 
 /**
  * The demo pilot as a cells file: every well row repeated `cells` times with a `cell` column and
@@ -67,7 +59,7 @@ describe('pilot section', () => {
 		await page.getByTestId('pilot-file').setInputFiles({ name: 'bad-pilot.csv', mimeType: 'text/csv', buffer: Buffer.from(lines.join('\n')) });
 		await page.getByTestId('pilot-error').waitFor();
 		// Line 5 of the file (header = line 1); column 4 is the first feature, nucleus_area.
-		expect(await textOf(page, 'pilot-error')).toContain('bad-pilot.csv, line 5, column “nucleus_area”: expected a finite number (decimal point, optional exponent), got "twelve".');
+		expect(await renderedText(page, 'pilot-error')).toContain('bad-pilot.csv, line 5, column “nucleus_area”: expected a finite number (decimal point, optional exponent), got "twelve".');
 		expect(await page.getByTestId('pilot-estimates').count()).toBe(0);
 		expect(app.errors).toEqual([]);
 		await page.close();
@@ -82,31 +74,31 @@ describe('pilot section', () => {
 
 		// The worker's estimates are the core's, computed here in Node from the same file and seed.
 		const direct = analysePilot(demoPlan, parsePilotCsvText(demoPlan, demoCsv), { seed: 1 });
-		expect(await textOf(page, 'pilot-wells')).toMatch(new RegExp(`^${direct.wells} wells on 2 plates`));
-		expect(await textOf(page, 'pilot-row-replicate')).toContain(direct.replicateNoise!.toFixed(3));
-		expect(await textOf(page, 'pilot-row-plate')).toContain(direct.plateEffect!.toFixed(3));
-		expect(await textOf(page, 'pilot-row-dimension')).toContain(`6 factors ${direct.signalDimension}`);
+		expect(await renderedText(page, 'pilot-wells')).toMatch(new RegExp(`^${direct.wells} wells on 2 plates`));
+		expect(await renderedText(page, 'pilot-row-replicate')).toContain(direct.replicateNoise!.toFixed(3));
+		expect(await renderedText(page, 'pilot-row-plate')).toContain(direct.plateEffect!.toFixed(3));
+		expect(await renderedText(page, 'pilot-row-dimension')).toContain(`6 factors ${direct.signalDimension}`);
 		// Z′ ≥ 0.5 reads as an excellent assay (Zhang, Chung & Oldenburg 1999).
 		expect(direct.zPrime!).toBeGreaterThanOrEqual(0.5);
-		expect(await textOf(page, 'pilot-zprime')).toContain(`Z′ = ${direct.zPrime!.toFixed(2)} excellent assay`);
-		for (const r of direct.reagents) expect(await textOf(page, `pilot-reagent-${r.id}`)).toContain(r.distance.toFixed(2));
+		expect(await renderedText(page, 'pilot-zprime')).toContain(`Z′ = ${direct.zPrime!.toFixed(2)} excellent assay`);
+		for (const r of direct.reagents) expect(await renderedText(page, `pilot-reagent-${r.id}`)).toContain(r.distance.toFixed(2));
 		await page.getByTestId('pilot-singular-values').waitFor();
 
 		// Apply: the plan before stays as a revision, the re-planned plan is the next one.
 		await page.getByTestId('pilot-apply').click();
 		await page.getByTestId('pilot-applied').waitFor();
 		await page.getByTestId('revision-compare').waitFor();
-		expect(await textOf(page, 'compare-head-a')).toBe('Revision 1: Before pilot (demo-pilot.csv)');
-		expect(await textOf(page, 'compare-head-b')).toBe('Revision 2: After pilot (demo-pilot.csv)');
+		expect(await renderedText(page, 'compare-head-a')).toBe('Revision 1: Before pilot (demo-pilot.csv)');
+		expect(await renderedText(page, 'compare-head-b')).toBe('Revision 2: After pilot (demo-pilot.csv)');
 		const noise = Number(direct.replicateNoise!.toPrecision(3));
-		expect(await textOf(page, 'compare-changes')).toContain(`observation.replicateNoise 0.5 → ${noise}`);
+		expect(await renderedText(page, 'compare-changes')).toContain(`observation.replicateNoise 0.5 → ${noise}`);
 		await page.getByTestId('compare-verdicts').filter({ hasNotText: 'checking' }).waitFor();
-		expect(await textOf(page, 'compare-verdicts')).toMatch(/Verdicts \d of 6 factors individually.* \d of 6 factors individually/);
-		expect(await textOf(page, 'compare-sizing')).toBe('Sizing not sized not sized');
-		expect(await textOf(page, 'compare-resize')).toContain('Revision 2 is not sized for its inputs yet.');
+		expect(await renderedText(page, 'compare-verdicts')).toMatch(/Verdicts \d of 6 factors individually.* \d of 6 factors individually/);
+		expect(await renderedText(page, 'compare-sizing')).toBe('Sizing not sized not sized');
+		expect(await renderedText(page, 'compare-resize')).toContain('Revision 2 is not sized for its inputs yet.');
 		expect(await page.getByTestId('replicate-noise').inputValue()).toBe(String(noise));
 		await page.getByTestId('revision-2').waitFor();
-		expect(await textOf(page, 'revision-1')).toContain('Before pilot (demo-pilot.csv)');
+		expect(await renderedText(page, 'revision-1')).toContain('Before pilot (demo-pilot.csv)');
 
 		// Re-size jumps to the Sizing section's run button.
 		await page.getByTestId('compare-resize-button').click();
@@ -116,10 +108,10 @@ describe('pilot section', () => {
 		await waitSaved(page);
 		await page.reload();
 		await page.getByTestId('pilot-estimates').waitFor();
-		expect(await textOf(page, 'pilot-applied')).toContain('Applied as revision 2');
-		expect(await textOf(page, 'compare-head-a')).toBe('Revision 1: Before pilot (demo-pilot.csv)');
-		expect(await textOf(page, 'compare-head-b')).toBe('Revision 2: After pilot (demo-pilot.csv)');
-		expect(await textOf(page, 'compare-changes')).toContain(`observation.replicateNoise 0.5 → ${noise}`);
+		expect(await renderedText(page, 'pilot-applied')).toContain('Applied as revision 2');
+		expect(await renderedText(page, 'compare-head-a')).toBe('Revision 1: Before pilot (demo-pilot.csv)');
+		expect(await renderedText(page, 'compare-head-b')).toBe('Revision 2: After pilot (demo-pilot.csv)');
+		expect(await renderedText(page, 'compare-changes')).toContain(`observation.replicateNoise 0.5 → ${noise}`);
 		expect(await page.getByTestId('pilot-apply').count()).toBe(0);
 		expect(app.errors).toEqual([]);
 		await page.close();
@@ -166,10 +158,10 @@ describe('pilot section', () => {
 		// seconds; streamed in the worker, the page's timers keep running (a loaded 2-core machine
 		// still answers within half a second).
 		expect(Math.max(...gaps)).toBeLessThan(500);
-		expect(await textOf(page, 'pilot-wells')).toContain(`208 wells (${rows.toLocaleString('en-GB')} cell rows averaged per well) on 2 plates`);
+		expect(await renderedText(page, 'pilot-wells')).toContain(`208 wells (${rows.toLocaleString('en-GB')} cell rows averaged per well) on 2 plates`);
 		// Each well's cells average back to its row in the demo file, so the estimates match the wells file.
 		const direct = analysePilot(demoPlan, parsePilotCsvText(demoPlan, demoCsv), { seed: 1 });
-		expect(await textOf(page, 'pilot-row-dimension')).toContain(`6 factors ${direct.signalDimension}`);
+		expect(await renderedText(page, 'pilot-row-dimension')).toContain(`6 factors ${direct.signalDimension}`);
 		expect(app.errors).toEqual([]);
 		await page.close();
 	});

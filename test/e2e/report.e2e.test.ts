@@ -4,29 +4,12 @@
  * sandboxed preview, download it, check the plan file's SHA-256 it prints against Node's crypto
  * on the exported plan file, print the preview, and see the report marked outdated after an edit.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
-import type { Page } from 'playwright-core';
 import { SECTION_ORDER } from '../../src/lib/core/report';
-import { createFromTemplate, openApp, waitSaved, type App } from './harness';
+import { createFromTemplate, downloadFile, renderedText, useApp, waitSaved } from './harness';
 
-let app: App;
-beforeAll(async () => {
-	app = await openApp();
-});
-afterAll(async () => {
-	await app?.close();
-});
-
-async function download(page: Page, click: () => Promise<void>): Promise<{ name: string; text: string }> {
-	const [file] = await Promise.all([page.waitForEvent('download'), click()]);
-	return { name: file.suggestedFilename(), text: readFileSync((await file.path())!, 'utf8') };
-}
-
-async function textOf(page: Page, testid: string): Promise<string> {
-	return (await page.getByTestId(testid).first().innerText()).replace(/\s+/g, ' ').trim();
-}
+const app = useApp();
 
 describe('report section', () => {
 	it('builds the demo plan’s report with every section, downloads and prints it', async () => {
@@ -39,9 +22,9 @@ describe('report section', () => {
 		await waitSaved(page);
 
 		await page.locator('#report').scrollIntoViewIfNeeded();
-		expect(await textOf(page, 'report-input-layout')).toMatch(/Plate layout included 1 /);
-		expect(await textOf(page, 'report-input-pilot')).toMatch(/Pilot findings included 1 /);
-		expect(await textOf(page, 'report-input-simulate')).toMatch(/not run yet/);
+		expect(await renderedText(page, 'report-input-layout')).toMatch(/Plate layout included 1 /);
+		expect(await renderedText(page, 'report-input-pilot')).toMatch(/Pilot findings included 1 /);
+		expect(await renderedText(page, 'report-input-simulate')).toMatch(/not run yet/);
 		await page.getByTestId('report-build').click();
 		await page.getByTestId('report-preview').waitFor();
 		expect(await page.getByTestId('report-preview').getAttribute('sandbox')).toBe('allow-same-origin allow-modals');
@@ -58,10 +41,10 @@ describe('report section', () => {
 		const reproducibility = (await frame.locator('section[data-section="reproducibility"]').innerText()).replace(/\s+/g, ' ');
 		expect(reproducibility).toMatch(/layout 1; pilot 1/);
 		expect(reproducibility).toContain('npm run plan -- report stress-response-factors-in-fibroblast-imaging-demo.plan.json --out stress-response-factors-in-fibroblast-imaging-demo-report.html --seed 1 --pilot demo-pilot.csv');
-		expect(await textOf(page, 'report-command')).toContain('--seed 1 --pilot demo-pilot.csv');
+		expect(await renderedText(page, 'report-command')).toContain('--seed 1 --pilot demo-pilot.csv');
 
 		// The downloaded file is the previewed report.
-		const file = await download(page, () => page.getByTestId('report-download').click());
+		const file = await downloadFile(page, () => page.getByTestId('report-download').click());
 		expect(file.name).toBe('stress-response-factors-in-fibroblast-imaging-demo-report.html');
 		expect(file.text).toMatch(/^<!doctype html>/i);
 		for (const id of SECTION_ORDER) expect(file.text).toContain(`data-section="${id}"`);
@@ -69,7 +52,7 @@ describe('report section', () => {
 		expect(srcdoc).toBe(file.text);
 
 		// Its plan SHA-256 is the SHA-256 of the exported plan file (Node's crypto as the reference).
-		const plan = await download(page, () => page.getByTestId('export-plan').click());
+		const plan = await downloadFile(page, () => page.getByTestId('export-plan').click());
 		const sha = createHash('sha256').update(plan.text, 'utf8').digest('hex');
 		expect(file.text).toContain(sha);
 
@@ -86,7 +69,7 @@ describe('report section', () => {
 		// An input change makes the built report outdated and the stored results stale.
 		await page.getByTestId('replicate-noise').fill('0.65');
 		await page.getByTestId('report-outdated').waitFor();
-		expect(await textOf(page, 'report-input-layout')).toMatch(/stale — left out/);
+		expect(await renderedText(page, 'report-input-layout')).toMatch(/stale — left out/);
 		await page.getByTestId('report-build').click();
 		await page.getByTestId('report-outdated').waitFor({ state: 'detached' });
 		const layoutSection = page.frameLocator('[data-testid="report-preview"]').locator('section[data-section="layout"]');

@@ -2,16 +2,10 @@
  * Two tabs editing one plan never overwrite each other; revisions are saved, listed after a
  * reload, and can be brought back into the working copy. Runs against the built app.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createFromTemplate, openApp, waitSaved, type App } from './harness';
+import { describe, expect, it } from 'vitest';
+import { createFromTemplate, useApp, waitSaved } from './harness';
 
-let app: App;
-beforeAll(async () => {
-	app = await openApp();
-});
-afterAll(async () => {
-	await app?.close();
-});
+const app = useApp();
 
 describe('two tabs on one plan', () => {
 	it('the later writer is told, nothing is overwritten, and its version can be kept as a copy', async () => {

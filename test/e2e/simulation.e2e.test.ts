@@ -5,25 +5,18 @@
  * replicates; the assurance interval is the Wilson score interval; the result is stored with
  * the plan (and a revision), survives a reload, and is marked stale after an input changes.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import pkg from 'jstat';
 import { effectiveDesign, parsePlan } from '../../src/lib/core/plan';
 import { simulate } from '../../src/lib/core/simulate';
-import { createFromTemplate, openApp, waitSaved, waitVerdicts, type App } from './harness';
+import { createFromTemplate, textOf, useApp, waitSaved, waitVerdicts } from './harness';
 
 const { jStat } = pkg;
 
-let app: App;
-beforeAll(async () => {
-	app = await openApp();
-});
-afterAll(async () => {
-	await app?.close();
-});
+const app = useApp();
 
-const text = async (page: Page, testid: string) => ((await page.getByTestId(testid).textContent()) ?? '').replace(/\s+/g, ' ').trim();
 const progressValue = (page: Page) => page.getByTestId('sim-progress').evaluate((el) => (el as HTMLProgressElement).value);
 
 /**
@@ -45,7 +38,7 @@ describe('simulation section', () => {
 		const page = await app.newPage('/');
 		const id = await createFromTemplate(page, 'demo');
 		await waitVerdicts(page);
-		expect(await text(page, 'sim-status')).toBe('No simulation yet.');
+		expect(await textOf(page, 'sim-status')).toBe('No simulation yet.');
 
 		// A long run: the progress bar appears and moves; then it is cancelled.
 		await page.getByTestId('sim-reps').fill('5000');
@@ -55,11 +48,11 @@ describe('simulation section', () => {
 		const early = await progressValue(page);
 		await page.waitForFunction((v) => ((document.querySelector('[data-testid="sim-progress"]') as HTMLProgressElement | null)?.value ?? 0) > v, early, { timeout: 30_000 });
 		expect(await page.getByTestId('sim-progress').evaluate((el) => (el as HTMLProgressElement).max)).toBe(5000);
-		expect(await text(page, 'sim-progress-text')).toMatch(/^[\d,]+ of 5,000 replicates$/);
+		expect(await textOf(page, 'sim-progress-text')).toMatch(/^[\d,]+ of 5,000 replicates$/);
 		expect(await page.getByTestId('sim-run').isDisabled()).toBe(true);
 		await page.getByTestId('sim-cancel').click();
 		await page.getByTestId('sim-progress').waitFor({ state: 'detached' });
-		expect(await text(page, 'sim-status')).toBe('Cancelled. Nothing was stored.');
+		expect(await textOf(page, 'sim-status')).toBe('Cancelled. Nothing was stored.');
 		expect(await page.getByTestId('sim-result').count()).toBe(0);
 
 		// A run that finishes, with its own seed.
@@ -67,24 +60,24 @@ describe('simulation section', () => {
 		await page.getByTestId('sim-seed').fill('7');
 		await page.getByTestId('sim-run').click();
 		await page.getByTestId('sim-result').waitFor({ timeout: 90_000 });
-		const meta = await text(page, 'sim-meta');
+		const meta = await textOf(page, 'sim-meta');
 		expect(meta).toMatch(/^Seed 7 · 200 replicates · route targeted · estimator Support-pattern unmixing \(known targets\) \(chosen by the route\)/);
 
 		// The worker's numbers equal the engine called directly (same plan, seed and replicates).
 		const plan = parsePlan(readFileSync('templates/demo.json', 'utf8'));
 		const direct = simulate(plan, effectiveDesign(plan), { seed: 7, reps: 200 });
-		expect(await text(page, 'sim-mcc-mean')).toBe(direct.mcc.mean.toFixed(3));
-		expect(await text(page, 'sim-mcc-p10')).toBe(direct.mcc.p10.toFixed(3));
-		expect(await text(page, 'sim-mcc-median')).toBe(direct.mcc.median.toFixed(3));
-		expect(await text(page, 'sim-mcc-p90')).toBe(direct.mcc.p90.toFixed(3));
+		expect(await textOf(page, 'sim-mcc-mean')).toBe(direct.mcc.mean.toFixed(3));
+		expect(await textOf(page, 'sim-mcc-p10')).toBe(direct.mcc.p10.toFixed(3));
+		expect(await textOf(page, 'sim-mcc-median')).toBe(direct.mcc.median.toFixed(3));
+		expect(await textOf(page, 'sim-mcc-p90')).toBe(direct.mcc.p90.toFixed(3));
 
 		// Assurance = share of replicates with MCC ≥ goal, with the Wilson 95 % interval.
 		const successes = direct.mccs.filter((m) => m >= plan.goal.mcc).length;
 		const reference = wilsonReference(successes, 200);
-		const assurance = await text(page, 'sim-assurance');
+		const assurance = await textOf(page, 'sim-assurance');
 		expect(assurance).toContain(`Assurance ${((100 * successes) / 200).toFixed(1)} %`);
 		expect(assurance).toContain(`${successes} of 200 replicates reach MCC ≥ 0.9`);
-		expect(await text(page, 'sim-assurance-interval')).toBe(`${(100 * reference.lo).toFixed(1)} %–${(100 * reference.hi).toFixed(1)} %`);
+		expect(await textOf(page, 'sim-assurance-interval')).toBe(`${(100 * reference.lo).toFixed(1)} %–${(100 * reference.hi).toFixed(1)} %`);
 		// With 80 % as the goal and the demo's default design, the interval lies below the goal.
 		expect(reference.hi).toBeLessThan(plan.goal.assurance);
 		expect(assurance).toContain('falls short of the assurance goal of 80 %');
@@ -111,8 +104,8 @@ describe('simulation section', () => {
 		await page.reload();
 		await page.getByTestId('sim-result').waitFor();
 		expect(new URL(page.url()).pathname).toBe(`/plan/${id}`);
-		expect(await text(page, 'sim-mcc-median')).toBe(direct.mcc.median.toFixed(3));
-		expect(await text(page, 'sim-meta')).toMatch(/^Seed 7 · 200 replicates/);
+		expect(await textOf(page, 'sim-mcc-median')).toBe(direct.mcc.median.toFixed(3));
+		expect(await textOf(page, 'sim-meta')).toMatch(/^Seed 7 · 200 replicates/);
 		expect(await page.getByTestId('sim-seed').inputValue()).toBe('7');
 		expect(await page.getByTestId('sim-reps').inputValue()).toBe('200');
 		expect(await page.getByTestId('sim-stale').count()).toBe(0);
@@ -120,11 +113,11 @@ describe('simulation section', () => {
 		// Changing an input marks the result stale (kept, not passed off as current), also after a reload.
 		await page.getByTestId('replicate-noise').fill('0.6');
 		await page.getByTestId('sim-stale').waitFor();
-		expect(await text(page, 'sim-stale')).toMatch(/^Stale\. The plan’s inputs have changed since this run/);
+		expect(await textOf(page, 'sim-stale')).toMatch(/^Stale\. The plan’s inputs have changed since this run/);
 		await waitSaved(page);
 		await page.reload();
 		await page.getByTestId('sim-stale').waitFor();
-		expect(await text(page, 'sim-mcc-median')).toBe(direct.mcc.median.toFixed(3));
+		expect(await textOf(page, 'sim-mcc-median')).toBe(direct.mcc.median.toFixed(3));
 		expect(app.errors).toEqual([]);
 		await page.close();
 	});
@@ -139,8 +132,8 @@ describe('simulation section', () => {
 		await page.getByTestId('sim-reps').fill('20');
 		await page.getByTestId('sim-run').click();
 		await page.getByTestId('sim-result').waitFor({ timeout: 60_000 });
-		expect(await text(page, 'sim-meta')).toMatch(/^Seed 1 · 20 replicates · route targeted · estimator Joint diagonalisation \(contexts\) \(chosen in the settings\)/);
-		const warnings = await text(page, 'sim-warnings');
+		expect(await textOf(page, 'sim-meta')).toMatch(/^Seed 1 · 20 replicates · route targeted · estimator Joint diagonalisation \(contexts\) \(chosen in the settings\)/);
+		const warnings = await textOf(page, 'sim-warnings');
 		expect(warnings).toContain('joint diagonalisation needs at least 2 contexts');
 		expect(warnings).toMatch(/only one context has data: joint diagonalisation cannot separate the factors \(in 20 of 20 replicates\)/);
 		expect(app.errors).toEqual([]);

@@ -5,23 +5,16 @@
  * Node (same plan and seed); "adopt" writes the design into the plan and saves a revision; after
  * a reload the Design section shows the adopted design; changing an input marks the sizing stale.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import { parsePlan } from '../../src/lib/core/plan';
 import { sizePlanSync } from '../../src/lib/core/size';
-import { createFromTemplate, openApp, waitSaved, waitVerdicts, type App } from './harness';
+import { createFromTemplate, textOf, useApp, waitSaved, waitVerdicts } from './harness';
 
-let app: App;
-beforeAll(async () => {
-	app = await openApp();
-});
-afterAll(async () => {
-	await app?.close();
-});
+const app = useApp();
 
-const text = async (page: Page, testid: string) => ((await page.getByTestId(testid).textContent()) ?? '').replace(/\s+/g, ' ').trim();
-const replicatesDone = async (page: Page) => Number((await text(page, 'size-progress-count')).replace(/,/g, ''));
+const replicatesDone = async (page: Page) => Number((await textOf(page, 'size-progress-count')).replace(/,/g, ''));
 /** The notebook's money text ("1,372 EUR"), as format.ts writes it. */
 const eur = (x: number) => `${x.toLocaleString('en-GB', { maximumFractionDigits: 2, minimumFractionDigits: x % 1 === 0 ? 0 : 2 })} EUR`;
 
@@ -37,7 +30,7 @@ describe('sizing section', () => {
 		const page = await app.newPage('/');
 		const id = await createFromTemplate(page, 'demo');
 		await waitVerdicts(page);
-		expect(await text(page, 'size-status')).toBe('Not sized yet.');
+		expect(await textOf(page, 'size-status')).toBe('Not sized yet.');
 
 		// First run: the count of simulated replicates moves; then cancel.
 		await page.getByTestId('size-run').click();
@@ -49,10 +42,10 @@ describe('sizing section', () => {
 			early,
 			{ timeout: 60_000 }
 		);
-		expect(await text(page, 'size-progress-text')).toMatch(/^Searching for the fewest replicates · [\d,]+ replicates simulated so far · judging \d+ reagents, \d+ replicates, \d+ controls per plate$/);
+		expect(await textOf(page, 'size-progress-text')).toMatch(/^Searching for the fewest replicates · [\d,]+ replicates simulated so far · judging \d+ reagents, \d+ replicates, \d+ controls per plate$/);
 		await page.getByTestId('size-cancel').click();
 		await page.getByTestId('size-progress').waitFor({ state: 'detached' });
-		expect(await text(page, 'size-status')).toBe('Cancelled. Nothing was stored.');
+		expect(await textOf(page, 'size-status')).toBe('Cancelled. Nothing was stored.');
 		expect(await page.getByTestId('size-result').count()).toBe(0);
 
 		// Second run to the end.
@@ -66,20 +59,20 @@ describe('sizing section', () => {
 		const d = direct.design!;
 		const name = (rid: string) => plan.reagents.find((r) => r.id === rid)!.name;
 
-		expect(await text(page, 'size-verdict')).toBe(`Feasible. ${direct.reason}`);
-		expect(await text(page, 'size-design-reagents')).toBe(`${d.reagents.length} reagents: ${d.reagents.map(name).join(', ')}`);
-		expect(await text(page, 'size-design-replicates')).toBe(`${d.replicates} wells per reagent and context`);
-		expect(await text(page, 'size-design-plates')).toMatch(new RegExp(`^${d.plates} × 384-well`));
-		expect(await text(page, 'size-cost-total')).toBe(`${eur(d.cost)} of ${eur(plan.budget.total)}`);
+		expect(await textOf(page, 'size-verdict')).toBe(`Feasible. ${direct.reason}`);
+		expect(await textOf(page, 'size-design-reagents')).toBe(`${d.reagents.length} reagents: ${d.reagents.map(name).join(', ')}`);
+		expect(await textOf(page, 'size-design-replicates')).toBe(`${d.replicates} wells per reagent and context`);
+		expect(await textOf(page, 'size-design-plates')).toMatch(new RegExp(`^${d.plates} × 384-well`));
+		expect(await textOf(page, 'size-cost-total')).toBe(`${eur(d.cost)} of ${eur(plan.budget.total)}`);
 		const a = direct.assurance!;
-		expect(await text(page, 'size-design-assurance')).toBe(
+		expect(await textOf(page, 'size-design-assurance')).toBe(
 			`${(100 * a.p).toFixed(1)} % (Wilson 95 % interval ${(100 * a.lo).toFixed(1)} %–${(100 * a.hi).toFixed(1)} %, ${a.reps} replicates) that MCC ≥ 0.9; goal 80 %`
 		);
 		// The cost breakdown adds up: plates + reagents + fixed = total (cost model of DESIGN.md).
 		const c = direct.cost!;
 		expect(c.plateCost + c.reagentCost + c.fixedCost).toBeCloseTo(c.total, 9);
 		// The t-test table shows the engine's wells per group for every reagent of the design.
-		for (const t of direct.tTest) expect(await text(page, `size-ttest-${t.id}`)).toContain(String(t.replicatesNeeded ?? '—'));
+		for (const t of direct.tTest) expect(await textOf(page, `size-ttest-${t.id}`)).toContain(String(t.replicatesNeeded ?? '—'));
 		// The charts carry their numbers: the frontier summary names its end points, the curve its points.
 		const frontierLabel = (await page.getByTestId('size-frontier').locator('[role="img"]').getAttribute('aria-label')) ?? '';
 		expect(frontierLabel).toContain(`Frontier of ${direct.frontier.length} designs`);
@@ -91,7 +84,7 @@ describe('sizing section', () => {
 		await page.getByTestId('size-adopt').click();
 		await page.getByTestId('size-adopted').waitFor();
 		await page.getByTestId('revision-1').filter({ hasText: 'Adopted sized design' }).waitFor();
-		expect(await text(page, 'size-adopted')).toContain('adopted, revision 1');
+		expect(await textOf(page, 'size-adopted')).toContain('adopted, revision 1');
 		await page.getByTestId('size-is-plan-design').waitFor();
 		expect(await page.getByTestId('size-stale').count()).toBe(0);
 		const allReagents = plan.reagents.map((r) => r.id);
@@ -105,14 +98,14 @@ describe('sizing section', () => {
 		await expectDesignSection(page, d, allReagents);
 		await page.getByTestId('size-adopted').waitFor();
 		expect(await page.getByTestId('size-stale').count()).toBe(0);
-		expect(await text(page, 'size-design-replicates')).toBe(`${d.replicates} wells per reagent and context`);
+		expect(await textOf(page, 'size-design-replicates')).toBe(`${d.replicates} wells per reagent and context`);
 		// The Design section's cost agrees with the sizing's cost of the adopted design.
 		await page.getByTestId('design-cost').filter({ hasText: eur(d.cost) }).waitFor();
 
 		// Changing an input marks the sizing stale; adopting is no longer offered as current.
 		await page.getByTestId('replicate-noise').fill('0.7');
 		await page.getByTestId('size-stale').waitFor();
-		expect(await text(page, 'size-stale')).toMatch(/^Stale\. The plan’s inputs have changed since this sizing/);
+		expect(await textOf(page, 'size-stale')).toMatch(/^Stale\. The plan’s inputs have changed since this sizing/);
 		expect(await page.getByTestId('size-adopted').count()).toBe(0);
 		expect(app.errors).toEqual([]);
 		await page.close();
@@ -135,14 +128,14 @@ describe('sizing section', () => {
 		const d = direct.design!;
 		const name = (rid: string) => plan.reagents.find((r) => r.id === rid)!.name;
 
-		expect(await text(page, 'size-verdict')).toBe(`Not feasible within the budget. ${direct.reason}`);
-		expect(await text(page, 'size-budget-needed')).toMatch(new RegExp(`^The goal needs a budget of ${eur(direct.budgetNeeded!).replace(/[.]/g, '\\.')} \\(the cheapest design found reaching it`));
-		expect(await text(page, 'size-budget-needed')).toContain('the budget is 1,200 EUR');
+		expect(await textOf(page, 'size-verdict')).toBe(`Not feasible within the budget. ${direct.reason}`);
+		expect(await textOf(page, 'size-budget-needed')).toMatch(new RegExp(`^The goal needs a budget of ${eur(direct.budgetNeeded!).replace(/[.]/g, '\\.')} \\(the cheapest design found reaching it`));
+		expect(await textOf(page, 'size-budget-needed')).toContain('the budget is 1,200 EUR');
 		expect(await page.getByTestId('size-design').locator('h3').textContent()).toBe('Best design the budget buys');
-		expect(await text(page, 'size-design-reagents')).toBe(`${d.reagents.length} reagents: ${d.reagents.map(name).join(', ')}`);
-		expect(await text(page, 'size-design-replicates')).toBe(`${d.replicates} wells per reagent and context`);
+		expect(await textOf(page, 'size-design-reagents')).toBe(`${d.reagents.length} reagents: ${d.reagents.map(name).join(', ')}`);
+		expect(await textOf(page, 'size-design-replicates')).toBe(`${d.replicates} wells per reagent and context`);
 		expect(d.cost).toBeLessThanOrEqual(1200);
-		expect(await text(page, 'size-cost-total')).toBe(`${eur(d.cost)} of 1,200 EUR`);
+		expect(await textOf(page, 'size-cost-total')).toBe(`${eur(d.cost)} of 1,200 EUR`);
 		expect(app.errors).toEqual([]);
 		await page.close();
 	});
@@ -170,7 +163,7 @@ describe('sizing section', () => {
 		// factor has no reagent-free direction left and is recoverable only together with Motility.
 		expect(direct.unreachable.length).toBeGreaterThan(0);
 		expect(direct.unreachable.every((u) => u.block.includes('mot'))).toBe(true);
-		expect(await text(page, 'size-verdict')).toBe(`No design can reach the goal. ${direct.reason}`);
+		expect(await textOf(page, 'size-verdict')).toBe(`No design can reach the goal. ${direct.reason}`);
 		expect(await page.getByTestId('size-budget-needed').count()).toBe(0);
 		const lines = (await page.getByTestId('size-unreachable').locator('li').allTextContents()).map((l) => l.replace(/\s+/g, ' ').trim());
 		expect(lines).toHaveLength(direct.unreachable.length);
