@@ -16,7 +16,7 @@ function naiveFastIca(x: Float64Array, n: number, p: number, k: number, seed: nu
 	const wh = whiten(x, n, p, k);
 	const xw = wh.whitened;
 	const r = rngFor(seed, 3);
-	let w = new Float64Array(k * k).map(() => r.normal());
+	let w: Float64Array = new Float64Array(k * k).map(() => r.normal());
 	w = symmetricDecorrelate(w, k, k);
 	let iterations = 0;
 	for (let it = 1; it <= maxIter; it++) {
