@@ -9,9 +9,10 @@
  * kernels (drawMixing, fillFactor, fastIca, scoreRecovery).
  *
  * Warm-up: `setup()` runs WARMUP_REPS untimed replicates (replicate numbers from WARMUP_FIRST
- * on) before the harness's own warm-up replicate, so V8 has compiled the sample loops to
- * optimised code before timing starts; one replicate leaves several of them in the first tiers.
- * It then pauses briefly so queued background compilations finish (settleCompiler).
+ * on) before the harness's own warm-up replicate, so V8 has compiled both the sample loops and
+ * the functions called once per replicate (fastIca, whiten, scoring) to optimised code before
+ * timing starts; with 4 or fewer, some of those were still compiled or re-optimised during the
+ * timed loop. It then pauses briefly so queued background compilations finish (settleCompiler).
  */
 import type { Workload } from '../workload';
 import { settleCompiler } from './targeted';
@@ -75,7 +76,7 @@ export function icaReplicate(rep: number): { mcc: number; converged: boolean; it
 }
 
 /** Untimed warm-up replicates run by setup(), numbered from WARMUP_FIRST (never timed ones). */
-export const WARMUP_REPS = 4;
+export const WARMUP_REPS = 12;
 export const WARMUP_FIRST = 1_000_000;
 
 export const workload: Workload = {
