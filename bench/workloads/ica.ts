@@ -21,7 +21,7 @@ import { fastIca } from '../../src/lib/core/recover';
 import { populationJointCovariance, scoreRecovery } from '../../src/lib/core/score';
 
 export const ICA_SEED = 4096;
-const D = 6;
+const D = 6; // addMixed is written out for exactly six factors
 const N = 5000;
 const P = 30;
 const NOISE = 0.1;
@@ -34,26 +34,27 @@ const AT = new Float64Array(D * P);
 
 /**
  * x (row-major N × P) += z (row-major N × D) · Aᵀ, with Aᵀ given row by row (`at`, D × P).
- * Its own function, so V8 optimises this loop separately from the replicate's bookkeeping.
+ * Written out for the workload's D = 6 factors (one pass over each sample's features; about
+ * twice as fast as looping over factor pairs). Its own function, so V8 optimises this loop
+ * separately from the replicate's bookkeeping.
  */
 function addMixed(x: Float64Array, z: Float64Array, at: Float64Array): void {
+	const a0 = at.subarray(0, P);
+	const a1 = at.subarray(P, 2 * P);
+	const a2 = at.subarray(2 * P, 3 * P);
+	const a3 = at.subarray(3 * P, 4 * P);
+	const a4 = at.subarray(4 * P, 5 * P);
+	const a5 = at.subarray(5 * P, 6 * P);
 	for (let s = 0; s < N; s++) {
 		const row = s * P;
 		const zs = s * D;
-		let j = 0;
-		// Two factors per pass over the sample's features.
-		for (; j + 1 < D; j += 2) {
-			const z0 = z[zs + j];
-			const z1 = z[zs + j + 1];
-			const a0 = j * P;
-			const a1 = a0 + P;
-			for (let i = 0; i < P; i++) x[row + i] += z0 * at[a0 + i] + z1 * at[a1 + i];
-		}
-		if (j < D) {
-			const z0 = z[zs + j];
-			const a0 = j * P;
-			for (let i = 0; i < P; i++) x[row + i] += z0 * at[a0 + i];
-		}
+		const z0 = z[zs];
+		const z1 = z[zs + 1];
+		const z2 = z[zs + 2];
+		const z3 = z[zs + 3];
+		const z4 = z[zs + 4];
+		const z5 = z[zs + 5];
+		for (let i = 0; i < P; i++) x[row + i] += z0 * a0[i] + z1 * a1[i] + z2 * a2[i] + z3 * a3[i] + z4 * a4[i] + z5 * a5[i];
 	}
 }
 
