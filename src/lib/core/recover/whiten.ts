@@ -48,44 +48,66 @@ export function whiten(x: Float64Array, n: number, p: number, k: number, layout:
 	}
 	const whitened = new Float64Array(n * k);
 	// Blocks of centred samples feature by feature; each component's values for the block are
-	// accumulated four features per pass, then stored in the requested layout.
+	// accumulated (two components and two features per pass), then stored in the requested layout.
 	const buf = new Float64Array(p * BLOCK);
 	const acc = new Float64Array(BLOCK);
+	const acc2 = new Float64Array(BLOCK);
 	for (let s0 = 0; s0 < n; s0 += BLOCK) {
 		const m = Math.min(BLOCK, n - s0);
 		centredBlock(x, p, mean, s0, m, buf);
-		for (let t = 0; t < k; t++) {
+		let t = 0;
+		// Two components per pass: each block value loaded serves both.
+		for (; t + 1 < k; t += 2) {
 			const wt = t * p;
+			const wu = wt + p;
 			acc.fill(0);
+			acc2.fill(0);
 			let i = 0;
-			for (; i + 3 < p; i += 4) {
-				const k0 = whitener[wt + i];
-				const k1 = whitener[wt + i + 1];
-				const k2 = whitener[wt + i + 2];
-				const k3 = whitener[wt + i + 3];
-				const o0 = i * BLOCK;
-				const o1 = o0 + BLOCK;
-				const o2 = o1 + BLOCK;
-				const o3 = o2 + BLOCK;
-				for (let u = 0; u < m; u++) acc[u] += k0 * buf[o0 + u] + k1 * buf[o1 + u] + k2 * buf[o2 + u] + k3 * buf[o3 + u];
-			}
 			for (; i + 1 < p; i += 2) {
 				const k0 = whitener[wt + i];
 				const k1 = whitener[wt + i + 1];
+				const l0 = whitener[wu + i];
+				const l1 = whitener[wu + i + 1];
 				const o0 = i * BLOCK;
 				const o1 = o0 + BLOCK;
-				for (let u = 0; u < m; u++) acc[u] += k0 * buf[o0 + u] + k1 * buf[o1 + u];
+				for (let u = 0; u < m; u++) {
+					const b0 = buf[o0 + u];
+					const b1 = buf[o1 + u];
+					acc[u] += k0 * b0 + k1 * b1;
+					acc2[u] += l0 * b0 + l1 * b1;
+				}
 			}
 			if (i < p) {
+				const k0 = whitener[wt + i];
+				const l0 = whitener[wu + i];
+				const o0 = i * BLOCK;
+				for (let u = 0; u < m; u++) {
+					const b0 = buf[o0 + u];
+					acc[u] += k0 * b0;
+					acc2[u] += l0 * b0;
+				}
+			}
+			storeComponent(whitened, layout, acc, t, n, k, s0, m);
+			storeComponent(whitened, layout, acc2, t + 1, n, k, s0, m);
+		}
+		if (t < k) {
+			const wt = t * p;
+			acc.fill(0);
+			for (let i = 0; i < p; i++) {
 				const k0 = whitener[wt + i];
 				const o0 = i * BLOCK;
 				for (let u = 0; u < m; u++) acc[u] += k0 * buf[o0 + u];
 			}
-			if (layout === 'columns') whitened.set(acc.subarray(0, m), t * n + s0);
-			else for (let u = 0; u < m; u++) whitened[(s0 + u) * k + t] = acc[u];
+			storeComponent(whitened, layout, acc, t, n, k, s0, m);
 		}
 	}
 	return { k, p, mean, whitener, whitened, layout, eigenvalues, warnings };
+}
+
+/** Component t's values for block samples s0 … s0+m−1, from acc, into the whitened samples. */
+function storeComponent(whitened: Float64Array, layout: 'rows' | 'columns', acc: Float64Array, t: number, n: number, k: number, s0: number, m: number) {
+	if (layout === 'columns') whitened.set(acc.subarray(0, m), t * n + s0);
+	else for (let u = 0; u < m; u++) whitened[(s0 + u) * k + t] = acc[u];
 }
 
 /** Samples per block in covarianceAbout and the whitening projection (a p × BLOCK buffer stays in L1). */
