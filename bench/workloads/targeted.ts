@@ -8,7 +8,7 @@
  * row j = smallest right singular vector of the effects of reagents not targeting j.
  * Score: population MCC of x = A·z + 0.2·N(0, I) (mean |Pearson| after Hungarian matching).
  *
- * Runs through the product's pipeline (prepareSimulation → runReplicate) with the fast path,
+ * Runs through the product's pipeline (prepareSimilar → runReplicate) with the fast path,
  * which draws Δ from its exact sampling distribution, and the exact population score in place of
  * 2,000 scoring draws; test/simulate/targetedBench.test.ts checks both shortcuts against the
  * full simulation. Set IDENTIPLATE_BENCH_FULL=1 to time the full specification instead.
@@ -22,7 +22,7 @@
  */
 import type { Workload } from '../workload';
 import type { Design, Plan, Reagent } from '../../src/lib/core/plan/types';
-import { prepareSimulation, rngFor, runReplicate } from '../../src/lib/core/simulate';
+import { prepareSimilar, rngFor, runReplicate, type PreparedSimulation } from '../../src/lib/core/simulate';
 
 export const TARGETED_SEED = 8128;
 const D = 8;
@@ -68,10 +68,14 @@ export function targetedDesign(plan: Plan): Design {
 	return { reagents: plan.reagents.map((r) => r.id), replicates: 4, controlsPerPlate: 32, contexts: [] };
 }
 
+/** The last replicate's preparation: only the reagents' targets and effects change between replicates, so prepareSimilar keeps its placement. */
+let previous: PreparedSimulation | null = null;
+
 /** One replicate; `full` simulates every well and scores 2,000 population draws. */
 export function targetedReplicate(rep: number, full = false): number {
 	const plan = targetedPlan(rep);
-	const prep = prepareSimulation(plan, targetedDesign(plan), { seed: TARGETED_SEED, estimator: 'support', fastPath: !full, scoreDraws: full ? 2000 : 0, blocks: null });
+	const prep = prepareSimilar(previous, plan, targetedDesign(plan), { seed: TARGETED_SEED, estimator: 'support', fastPath: !full, scoreDraws: full ? 2000 : 0, blocks: null });
+	previous = prep;
 	return runReplicate(prep, rep).mcc;
 }
 

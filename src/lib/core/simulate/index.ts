@@ -1,7 +1,7 @@
 /** Monte Carlo recovery simulation: public surface. */
 export { rngFor, shuffleInPlace, type Rng } from './rng';
 export * from './types';
-export { prepareSimulation, DEFAULT_SCORE_DRAWS, DEFAULT_MAX_CELLS } from './prepareSimulation';
+export { prepareSimulation, prepareSimilar, DEFAULT_SCORE_DRAWS, DEFAULT_MAX_CELLS } from './prepareSimulation';
 export { runReplicate } from './runReplicate';
 export { summarise } from './summarise';
 export { simulate } from './simulate';

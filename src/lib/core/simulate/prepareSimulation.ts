@@ -149,7 +149,7 @@ export function prepareSimulation(plan: Plan, design: Design, opts: SimulationOp
 	const maxCells = opts.maxCells ?? DEFAULT_MAX_CELLS;
 	if (!Number.isInteger(maxCells) || maxCells < 1) throw new RangeError(`maxCells must be an integer ≥ 1, got ${maxCells}`);
 
-	return {
+	const prepared: PreparedSimulation = {
 		plan,
 		design,
 		seed: opts.seed,
@@ -182,7 +182,12 @@ export function prepareSimulation(plan: Plan, design: Design, opts: SimulationOp
 		mixingCondition: opts.mixingCondition ?? null,
 		warnings
 	};
+	PREPARED_WITH.set(prepared, { ...opts });
+	return prepared;
 }
+
+/** The options each preparation was made with (prepareSimilar reuses one only for the same options). */
+const PREPARED_WITH = new WeakMap<PreparedSimulation, SimulationOptions>();
 
 /** [value, count, value, count, …] of `values` over the entries whose `keys` equal `key`, in first-seen order. */
 function countPairs(keys: number[], values: number[], key: number): number[] {
@@ -195,4 +200,64 @@ function countPairs(keys: number[], values: number[], key: number): number[] {
 		else out.push(values[i], 1);
 	}
 	return out;
+}
+
+/**
+ * The preparation for `plan` and `design` when `previous` was prepared for a plan that differs
+ * only in its reagents' targets and effects (as when every Monte Carlo replicate draws its own
+ * reagents): the placement, index maps and options of `previous` are kept and only the known
+ * targets are resolved again, so the result equals prepareSimulation(plan, design, opts).
+ * Anything else that differs — factors, reagent ids, contexts, observation, budget, goal, design,
+ * options, blocks left to the identify module (`opts.blocks` undefined), or a factor that no
+ * reagent with known targets covers — falls back to prepareSimulation.
+ */
+export function prepareSimilar(previous: PreparedSimulation | null, plan: Plan, design: Design, opts: SimulationOptions): PreparedSimulation {
+	if (previous === null || !reusable(previous, plan, design, opts)) return prepareSimulation(plan, design, opts);
+	const factorIds = previous.factorIds;
+	const d = factorIds.length;
+	const R = previous.reagentCatalogue.length;
+	const knownTargets: (number[] | null)[] = new Array(R);
+	const covered = new Uint8Array(d);
+	for (let k = 0; k < R; k++) {
+		const t = plan.reagents[previous.reagentCatalogue[k]].targets;
+		if (!t) {
+			knownTargets[k] = null;
+			continue;
+		}
+		const idx: number[] = [];
+		for (let i = 0; i < t.length; i++) {
+			const j = factorIds.indexOf(t[i]);
+			if (j >= 0) {
+				idx.push(j);
+				covered[j] = 1;
+			}
+		}
+		knownTargets[k] = idx;
+	}
+	for (let j = 0; j < d; j++) if (covered[j] === 0) return prepareSimulation(plan, design, opts);
+	const prepared: PreparedSimulation = { ...previous, plan, design, knownTargets, warnings: previous.warnings.slice() };
+	PREPARED_WITH.set(prepared, { ...opts });
+	return prepared;
+}
+
+/** Whether `previous` was prepared from inputs that agree with these in everything but reagent targets and effects. */
+function reusable(previous: PreparedSimulation, plan: Plan, design: Design, opts: SimulationOptions): boolean {
+	const old = previous.plan;
+	const od = previous.design;
+	if (opts.blocks === undefined || !sameJson(opts, PREPARED_WITH.get(previous))) return false;
+	if (!coversEvery(previous)) return false;
+	if (plan.factors.length !== old.factors.length || plan.factors.some((f, j) => f.id !== old.factors[j].id || f.shape !== old.factors[j].shape)) return false;
+	if (plan.reagents.length !== old.reagents.length || plan.reagents.some((r, i) => r.id !== old.reagents[i].id)) return false;
+	if (plan.contexts !== old.contexts && (plan.contexts.length > 0 || old.contexts.length > 0)) return false;
+	if (!sameJson(plan.observation, old.observation) || !sameJson(plan.budget, old.budget) || plan.goal.route !== old.goal.route || plan.goal.mcc !== old.goal.mcc) return false;
+	return design === od || sameJson(design, od);
+}
+
+function coversEvery(prep: PreparedSimulation): boolean {
+	for (let j = 0; j < prep.factorIds.length; j++) if (!prep.knownTargets.some((t) => t !== null && t.includes(j))) return false;
+	return true;
+}
+
+function sameJson(a: unknown, b: unknown): boolean {
+	return a === b || JSON.stringify(a) === JSON.stringify(b);
 }
