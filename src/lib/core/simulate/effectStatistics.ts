@@ -1,5 +1,5 @@
 import { contextKey, STREAM } from './keys';
-import { rngFor } from './rng';
+import { rngFor, type Rng } from './rng';
 import type { WellData } from './simulateWells';
 import type { PreparedSimulation } from './types';
 import { CLAMP_SPREAD, meanOf, sdOf, type World } from './world';
@@ -58,7 +58,6 @@ export function drawEffectStatistics(prep: PreparedSimulation, world: World, rep
 	const cells = prep.cellsPerWell;
 	const tau2 = obs.replicateNoise * obs.replicateNoise;
 	const sw = obs.measurementNoise / Math.sqrt(Math.max(1, cells));
-	const a = world.mixing.a;
 
 	// Plate control means: factor part (P × d) and feature noise part (P × p).
 	const ctrlZ = new Float64Array(P * d);
@@ -84,6 +83,8 @@ export function drawEffectStatistics(prep: PreparedSimulation, world: World, rep
 	}
 
 	// Per reagent: accumulate factor-space mean (zAcc) and feature-space noise (eAcc), then map.
+	// The numeric loops live in small functions of typed arrays and numbers only, so V8 compiles
+	// each of them early and once (one big function took several slow recompilations).
 	const delta = new Float64Array(R * p);
 	const zAcc = new Float64Array(d);
 	const eAcc = new Float64Array(p);
@@ -97,6 +98,7 @@ export function drawEffectStatistics(prep: PreparedSimulation, world: World, rep
 		zAcc.fill(0);
 		eAcc.fill(0);
 		const rr = world.reagents[k];
+		const targets = rr.targets;
 		for (let g = 0; g < groups.length; g += 2) {
 			const c = groups[g];
 			const n = groups[g + 1];
@@ -106,11 +108,9 @@ export function drawEffectStatistics(prep: PreparedSimulation, world: World, rep
 			else for (let i = 0; i < n; i++) if (rng.next() < rr.efficacy) K++;
 			const m = meanOf(world, c, d);
 			const s = sdOf(world, c, d);
-			for (let j = 0; j < d; j++) {
-				muResp[j] = m[j];
-				vResp[j] = tau2 + (cells > 0 ? (s[j] * s[j]) / cells : 0);
-			}
-			for (const j of rr.targets) {
+			baselineMoments(muResp, vResp, m, s, tau2, cells, d);
+			for (let t = 0; t < targets.length; t++) {
+				const j = targets[t];
 				if (rr.kind === 'shift') muResp[j] = m[j] + rr.effect[j];
 				else if (rr.kind === 'clamp') {
 					muResp[j] = rr.effect[j];
@@ -121,29 +121,51 @@ export function drawEffectStatistics(prep: PreparedSimulation, world: World, rep
 				}
 			}
 			const wgt = n / N;
-			for (let j = 0; j < d; j++) {
-				const vNon = tau2 + (cells > 0 ? (s[j] * s[j]) / cells : 0);
-				const mean = (K * muResp[j] + (n - K) * m[j]) / n;
-				const sd = Math.sqrt(K * vResp[j] + (n - K) * vNon) / n;
-				zAcc[j] += wgt * (mean + sd * rng.normal());
-			}
+			addGroupMean(zAcc, muResp, vResp, m, s, K, n, wgt, tau2, cells, d, rng);
 			rng.fillNormal(noise, 0, p, (wgt * sw) / Math.sqrt(n));
-			for (let i = 0; i < p; i++) eAcc[i] += noise[i];
+			addInto(eAcc, noise, p);
 		}
 		const plates = prep.reagentPlates[k];
-		for (let t = 0; t < plates.length; t += 2) {
-			const q = plates[t];
-			const wq = plates[t + 1];
-			for (let j = 0; j < d; j++) zAcc[j] -= wq * ctrlZ[q * d + j];
-			for (let i = 0; i < p; i++) eAcc[i] -= wq * ctrlE[q * p + i];
-		}
-		const row = k * p;
-		for (let i = 0; i < p; i++) {
-			let v = eAcc[i];
-			const ai = i * d;
-			for (let j = 0; j < d; j++) v += a[ai + j] * zAcc[j];
-			delta[row + i] = v;
-		}
+		for (let t = 0; t < plates.length; t += 2) subtractControls(zAcc, eAcc, ctrlZ, ctrlE, plates[t], plates[t + 1], d, p);
+		mapRow(delta, k * p, world.mixing.a, zAcc, eAcc, p, d);
 	}
 	return delta;
+}
+
+/** Means and variances of non-responding wells (the responding ones start from these). */
+function baselineMoments(muResp: Float64Array, vResp: Float64Array, m: Float64Array, s: Float64Array, tau2: number, cells: number, d: number): void {
+	for (let j = 0; j < d; j++) {
+		muResp[j] = m[j];
+		vResp[j] = tau2 + (cells > 0 ? (s[j] * s[j]) / cells : 0);
+	}
+}
+
+/** zAcc += wgt · (mean of a group of n wells, K of them responding), one normal draw per factor. */
+function addGroupMean(zAcc: Float64Array, muResp: Float64Array, vResp: Float64Array, m: Float64Array, s: Float64Array, K: number, n: number, wgt: number, tau2: number, cells: number, d: number, rng: Rng): void {
+	for (let j = 0; j < d; j++) {
+		const vNon = tau2 + (cells > 0 ? (s[j] * s[j]) / cells : 0);
+		const mean = (K * muResp[j] + (n - K) * m[j]) / n;
+		const sd = Math.sqrt(K * vResp[j] + (n - K) * vNon) / n;
+		zAcc[j] += wgt * (mean + sd * rng.normal());
+	}
+}
+
+function addInto(acc: Float64Array, x: Float64Array, p: number): void {
+	for (let i = 0; i < p; i++) acc[i] += x[i];
+}
+
+/** Removes share wq of plate q's control means (factor part ctrlZ, noise part ctrlE). */
+function subtractControls(zAcc: Float64Array, eAcc: Float64Array, ctrlZ: Float64Array, ctrlE: Float64Array, q: number, wq: number, d: number, p: number): void {
+	for (let j = 0; j < d; j++) zAcc[j] -= wq * ctrlZ[q * d + j];
+	for (let i = 0; i < p; i++) eAcc[i] -= wq * ctrlE[q * p + i];
+}
+
+/** delta[row + i] = eAcc[i] + (A·zAcc)[i], A row-major p × d. */
+function mapRow(delta: Float64Array, row: number, a: Float64Array, zAcc: Float64Array, eAcc: Float64Array, p: number, d: number): void {
+	for (let i = 0; i < p; i++) {
+		let v = eAcc[i];
+		const ai = i * d;
+		for (let j = 0; j < d; j++) v += a[ai + j] * zAcc[j];
+		delta[row + i] = v;
+	}
 }
