@@ -47,8 +47,16 @@ export function scoreRecovery(cov: Float64Array, k: number, d: number, blocks?: 
 			for (let j = 0; j < d; j++) if (rowOfCol[j] >= 0) matched[j] = rowOfCol[j];
 		}
 	}
-	const factorCorr = matched.map((i, j) => (i >= 0 ? absCorr[i * d + j] : 0));
-	const mcc = d === 0 ? NaN : factorCorr.reduce((s, v) => s + v, 0) / d;
+	// A plain loop: the matched correlations mix 0 and fractions, and map/reduce over them gave
+	// V8 arrays of changing element kinds (deoptimising this function every few replicates).
+	const factorCorr: number[] = [];
+	let sum = 0;
+	for (let j = 0; j < d; j++) {
+		const v = matched[j] >= 0 ? absCorr[matched[j] * d + j] : 0;
+		factorCorr.push(v);
+		sum += v;
+	}
+	const mcc = d === 0 ? NaN : sum / d;
 	let blockR2: number[] | null = null;
 	if (blocks) {
 		blockR2 = new Array<number>(d).fill(NaN);

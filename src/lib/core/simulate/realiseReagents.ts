@@ -23,13 +23,20 @@ export interface RealisedReagent {
 export function realiseReagent(reagent: Reagent, catalogue: number, factorIds: readonly string[], seed: number, rep: number): RealisedReagent {
 	const rng = rngFor(seed, rep, STREAM.REAGENT, catalogue);
 	const d = factorIds.length;
+	const known = reagent.targets;
 	let targets: number[];
-	if (reagent.targets) targets = reagent.targets.map((id) => factorIds.indexOf(id)).filter((j) => j >= 0);
-	else targets = drawTargets(Math.min(reagent.expectedTargets ?? 1, d), d, rng);
+	if (known) {
+		targets = [];
+		for (let i = 0; i < known.length; i++) {
+			const j = factorIds.indexOf(known[i]);
+			if (j >= 0) targets.push(j);
+		}
+	} else targets = drawTargets(Math.min(reagent.expectedTargets ?? 1, d), d, rng);
 	const effect = new Float64Array(d);
 	const cv = reagent.effectCv ?? 0;
 	const sigma = Math.sqrt(Math.log(1 + cv * cv));
-	for (const j of targets) {
+	for (let t = 0; t < targets.length; t++) {
+		const j = targets[t];
 		const stated = statedEffect(reagent, factorIds[j]);
 		const xi = rng.normal();
 		effect[j] = cv > 0 ? stated * Math.exp(sigma * xi - (sigma * sigma) / 2) : stated;
