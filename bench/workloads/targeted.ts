@@ -28,26 +28,45 @@ export const TARGETED_SEED = 8128;
 const D = 8;
 const R = 24;
 
-/** The replicate's plan (targets and effects are drawn per replicate, as the workload specifies). */
+const FACTOR_IDS = Array.from({ length: D }, (_, j) => `f${j + 1}`);
+const REAGENT_IDS = Array.from({ length: R }, (_, r) => `r${r + 1}`);
+
+/**
+ * The replicate's plan (targets and effects are drawn per replicate, as the workload specifies).
+ * Written with plain loops and precomputed ids so that building it stays cheap before V8 has
+ * compiled it; the draws are: for r ≥ 8 the count (next() < 0.5 → 1, else 2), a partial
+ * Fisher–Yates shuffle of 0…7 for the targets, then one effect per target in ascending order.
+ */
 export function targetedPlan(rep: number): Plan {
 	const rng = rngFor(TARGETED_SEED, rep, 1000);
-	const factors = Array.from({ length: D }, (_, j) => ({ id: `f${j + 1}`, name: `factor ${j + 1}`, shape: 'laplace' as const }));
+	const factors = [];
+	for (let j = 0; j < D; j++) factors.push({ id: FACTOR_IDS[j], name: `factor ${j + 1}`, shape: 'laplace' as const });
 	const reagents: Reagent[] = [];
+	const pool = new Int32Array(D);
 	for (let r = 0; r < R; r++) {
-		let targets: number[];
-		if (r < D) targets = [r];
+		const targets: number[] = [];
+		if (r < D) targets.push(r);
 		else {
 			const count = rng.next() < 0.5 ? 1 : 2;
-			const pool = Array.from({ length: D }, (_, j) => j);
+			for (let j = 0; j < D; j++) pool[j] = j;
 			for (let i = 0; i < count; i++) {
 				const j = i + rng.int(D - i);
-				[pool[i], pool[j]] = [pool[j], pool[i]];
+				const t = pool[i];
+				pool[i] = pool[j];
+				pool[j] = t;
 			}
-			targets = pool.slice(0, count).sort((a, b) => a - b);
+			if (count === 1) targets.push(pool[0]);
+			else if (pool[0] < pool[1]) targets.push(pool[0], pool[1]);
+			else targets.push(pool[1], pool[0]);
 		}
 		const effect: Record<string, number> = {};
-		for (const j of targets) effect[`f${j + 1}`] = 0.8 + 0.7 * rng.next();
-		reagents.push({ id: `r${r + 1}`, name: `reagent ${r + 1}`, targets: targets.map((j) => `f${j + 1}`), kind: 'shift', effect, effectCv: 0, efficacy: 1, costPerWell: 1 });
+		const targetIds: string[] = [];
+		for (let t = 0; t < targets.length; t++) {
+			const id = FACTOR_IDS[targets[t]];
+			effect[id] = 0.8 + 0.7 * rng.next();
+			targetIds.push(id);
+		}
+		reagents.push({ id: REAGENT_IDS[r], name: `reagent ${r + 1}`, targets: targetIds, kind: 'shift', effect, effectCv: 0, efficacy: 1, costPerWell: 1 });
 	}
 	return {
 		format: 'identiplate-plan',
