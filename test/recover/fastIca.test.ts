@@ -8,7 +8,7 @@ import { whiten } from '../../src/lib/core/recover/whiten';
 import { symmetricDecorrelate } from '../../src/lib/core/linalg';
 
 /**
- * Plain transcription of the symmetric FastICA iteration (Hyvärinen & Oja 2000, eqs. 44–45;
+ * Plain step-by-step version of the symmetric FastICA iteration (Hyvärinen & Oja 2000, eqs. 44–45;
  * logcosh contrast g = tanh, g′ = 1 − tanh²), one sample at a time with Math.tanh, on the
  * row-major whitened data: the reference for the optimised kernel.
  */
@@ -111,7 +111,7 @@ describe('FastICA (logcosh, symmetric)', () => {
 		[1, 400, 3],
 		[3, 1500, 7],
 		[6, 5000, 30]
-	])('k = %i, n = %i, p = %i: the optimised kernel gives the plain transcription of the update (same iterations, W·K to 1e-10)', (k, n, p) => {
+	])('k = %i, n = %i, p = %i: the optimised kernel gives the plain step-by-step update (same iterations, W·K to 1e-10)', (k, n, p) => {
 		const { x } = mixed('laplace', k, n, p, 40 + k);
 		const fast = fastIca(x, n, p, { components: k, rng: rngFor(40 + k, 3) });
 		const ref = naiveFastIca(x, n, p, k, 40 + k);
