@@ -1,3 +1,4 @@
+import { seedRule } from '../lib/core/plan/constraints';
 /** Minimal argument parsing for the `identiplate` command line. */
 
 export class UsageError extends Error {
@@ -42,6 +43,11 @@ export function intFlag(args: ParsedArgs, name: string, fallback: number, min = 
 	const n = typeof v === 'string' && /^-?\d+$/.test(v) ? Number(v) : NaN;
 	if (!Number.isSafeInteger(n) || n < min || n > max) throw new UsageError(`--${name} must be an integer in [${min}, ${max}], got ${v === true ? 'nothing' : JSON.stringify(v)}`);
 	return n;
+}
+
+/** `--seed N` within the shared seed range of the constraint table; absent → `fallback`. */
+export function seedFlag(args: ParsedArgs, fallback = 1): number {
+	return intFlag(args, 'seed', fallback, seedRule.min, seedRule.max);
 }
 
 export function stringFlag(args: ParsedArgs, name: string): string | undefined {

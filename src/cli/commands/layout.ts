@@ -1,7 +1,7 @@
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Command } from '../main';
-import { assertKnownFlags, intFlag, stringFlag, UsageError } from '../args';
+import { assertKnownFlags, stringFlag, UsageError, seedFlag } from '../args';
 import { emit, InputError, readPlanFile, writeOutput } from '../io';
 import {
 	LayoutError,
@@ -31,7 +31,7 @@ export const command: Command = {
 		if (args.positional.length > 1) throw new UsageError(`expected one PLAN file, got ${args.positional.length} arguments`);
 		const csvFile = stringFlag(args, 'csv');
 		if (!csvFile) throw new UsageError('--csv FILE is required (where to write the layout CSV)');
-		const seed = intFlag(args, 'seed', 1, 0, 0xffffffff);
+		const seed = seedFlag(args);
 		const svgDir = stringFlag(args, 'svg');
 		const htmlFile = stringFlag(args, 'out');
 		const planFile = args.positional[0];

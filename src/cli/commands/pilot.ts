@@ -1,7 +1,7 @@
 import { createReadStream, existsSync } from 'node:fs';
 import Papa from 'papaparse';
 import type { Command } from '../main';
-import { assertKnownFlags, intFlag, stringFlag, UsageError } from '../args';
+import { assertKnownFlags, stringFlag, UsageError, seedFlag } from '../args';
 import { emit, InputError, readPlanFile, writeOutput } from '../io';
 import { analysePilot, applyPilot, createPilotReader, PilotError, type PilotEstimates, type PilotReader, type PilotTable } from '../../lib/core/pilot';
 import { serializePlan, type Plan } from '../../lib/core/plan';
@@ -23,7 +23,7 @@ export const command: Command = {
 		assertKnownFlags(args, ['json', 'out', 'force', 'seed', 'kind', 'zprime-feature', 'scaling']);
 		if (args.positional.length !== 2) throw new UsageError(`expected PLAN and DATA.csv, got ${args.positional.length} argument${args.positional.length === 1 ? '' : 's'}`);
 		const [planFile, dataFile] = args.positional;
-		const seed = intFlag(args, 'seed', 1, 0, 0xffffffff);
+		const seed = seedFlag(args);
 		const kind = choiceFlag(args.flags.get('kind'), 'kind', ['auto', 'wells', 'cells'] as const, 'auto');
 		const scaling = choiceFlag(args.flags.get('scaling'), 'scaling', ['pooled', 'plate'] as const, 'pooled');
 		const zPrimeFeature = args.flags.has('zprime-feature') ? stringFlag(args, 'zprime-feature') : undefined;

@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
 import type { Command } from '../main';
-import { assertKnownFlags, intFlag, stringFlag, UsageError } from '../args';
+import { assertKnownFlags, intFlag, stringFlag, UsageError, seedFlag } from '../args';
 import { emit, InputError, readPlanFile, writeOutput } from '../io';
 import { defaultThreadCount, runReplicatesParallel } from '../pool';
 import { createSizePool } from '../sizePool';
@@ -41,7 +41,7 @@ export const command: Command = {
 		if (args.positional.length !== 1) throw new UsageError(`expected one PLAN file, got ${args.positional.length} arguments`);
 		const out = stringFlag(args, 'out');
 		if (!out) throw new UsageError('--out FILE.html is required (where to write the report)');
-		const seed = intFlag(args, 'seed', 1, 0, 2 ** 31 - 1);
+		const seed = seedFlag(args);
 		const reps = intFlag(args, 'reps', DEFAULT_REPS, 1, 100_000);
 		const threads = intFlag(args, 'threads', defaultThreadCount(), 1, 256);
 		const pilotFile = stringFlag(args, 'pilot');

@@ -1,5 +1,5 @@
 import type { Command } from '../main';
-import { assertKnownFlags, intFlag, stringFlag, UsageError } from '../args';
+import { assertKnownFlags, intFlag, stringFlag, UsageError, seedFlag } from '../args';
 import { emit, readPlanFile } from '../io';
 import { defaultThreadCount, runReplicatesParallel } from '../pool';
 import { effectiveDesign, type Plan } from '../../lib/core/plan';
@@ -13,7 +13,7 @@ export const command: Command = {
 		assertKnownFlags(args, ['json', 'reps', 'seed', 'threads', 'estimator']);
 		if (args.positional.length > 1) throw new UsageError(`expected one PLAN file, got ${args.positional.length} arguments`);
 		const reps = intFlag(args, 'reps', 200, 1, 1_000_000);
-		const seed = intFlag(args, 'seed', 1, 0, 2 ** 53 - 1);
+		const seed = seedFlag(args);
 		const threads = intFlag(args, 'threads', defaultThreadCount(), 1, 256);
 		const est = stringFlag(args, 'estimator') ?? 'auto';
 		if (est !== 'auto' && !ESTIMATORS.includes(est as EstimatorName)) throw new UsageError(`--estimator must be one of auto, ${ESTIMATORS.join(', ')}; got ${JSON.stringify(est)}`);

@@ -1,5 +1,5 @@
 import type { Command } from '../main';
-import { assertKnownFlags, intFlag, UsageError } from '../args';
+import { assertKnownFlags, intFlag, UsageError, seedFlag } from '../args';
 import { emit, readPlanFile } from '../io';
 import type { Plan } from '../../lib/core/plan';
 import { sizePlan, SIZE_DEFAULTS, type SizeResult } from '../../lib/core/size';
@@ -13,7 +13,7 @@ export const command: Command = {
 		assertKnownFlags(args, ['json', 'seed', 'threads']);
 		if (args.positional.length > 1) throw new UsageError(`expected one PLAN file, got ${args.positional.length} arguments`);
 		const plan = readPlanFile(args.positional[0]);
-		const seed = intFlag(args, 'seed', SIZE_DEFAULTS.seed, 0, 2 ** 31 - 1);
+		const seed = seedFlag(args, SIZE_DEFAULTS.seed);
 		const threads = intFlag(args, 'threads', defaultThreads(), 1, 64);
 		const json = args.flags.has('json');
 		const pool = await createSizePool(plan, threads);

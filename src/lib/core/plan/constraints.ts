@@ -106,6 +106,12 @@ export const designRules = {
 	plates: { kind: 'number', integer: true, min: 1, optional: true, help: 'Number of plates.' }
 } satisfies Record<string, FieldRule>;
 
+/**
+ * Seed of every random result (simulation, sizing, layout, pilot permutations, report): one range
+ * for the command line and the notebook alike.
+ */
+export const seedRule: NumberRule = { kind: 'number', integer: true, min: 0, max: 4294967295, help: 'Seed of every random draw; the same plan and seed give the same result.' };
+
 /** Plain-words statement of what a rule expects, used in every error message. */
 export function describeRule(rule: FieldRule): string {
 	switch (rule.kind) {
